@@ -1,0 +1,30 @@
+/**
+ * Errors a user can cause, with a stable code, the HTTP status the API answers with, and the
+ * field that caused it. Shared by the physics core, the server and the CLI so a message reads
+ * the same everywhere.
+ */
+export class RollwayError extends Error {
+  constructor(
+    readonly code: string,
+    message: string,
+    readonly status: number = 400,
+    readonly field?: string,
+  ) {
+    super(message);
+    this.name = 'RollwayError';
+  }
+
+  toJSON(): { code: string; message: string; field?: string } {
+    return this.field === undefined
+      ? { code: this.code, message: this.message }
+      : { code: this.code, message: this.message, field: this.field };
+  }
+}
+
+/** A user-supplied expression, table or option that cannot be used as given. */
+export class InvalidInputError extends RollwayError {
+  constructor(message: string, field?: string, code = 'invalid_input') {
+    super(code, message, 400, field);
+    this.name = 'InvalidInputError';
+  }
+}

@@ -1,0 +1,65 @@
+import type { PotentialEvaluator } from '../potential/types.ts';
+
+/**
+ * Background of a canonical scalar field in e-folds N (M_pl = 1):
+ *   phi'' = -(3 - eps1)(phi' + V_phi/V),  eps1 = phi'^2/2,  H^2 = V/(3 - eps1).
+ * The state is (phi, u) with u = phi' + V_phi/V. On the slow-roll attractor u is a small
+ * difference of two nearly equal numbers; integrating it directly keeps its relative accuracy,
+ * which eps2 and eps3 are built from (integrating (phi, phi') loses it).
+ *   phi' = u - (ln V)',   u' = -(3 - eps1) u + (ln V)'' phi'.
+ */
+export type BackgroundRhs = (n: number, y: number[]) => number[];
+
+export function createBackgroundRhs(evaluate: PotentialEvaluator, params: Float64Array): BackgroundRhs {
+  const buf = new Float64Array(3);
+  // odex copies the returned values out at once, so one array serves every call.
+  const dy = [0, 0];
+  return (_n, y) => {
+    const phi = y[0]!;
+    const u = y[1]!;
+    evaluate(phi, params, buf);
+    const v = buf[0]!;
+    const dlnV = buf[1]! / v;
+    const d2lnV = buf[2]! / v - dlnV * dlnV;
+    const dphi = u - dlnV;
+    dy[0] = dphi;
+    dy[1] = -(3 - 0.5 * dphi * dphi) * u + d2lnV * dphi;
+    return dy;
+  };
+}
+
+/** Hubble-flow parameters and H^2 at one background state. */
+export interface FlowState {
+  V: number;
+  dphi: number;
+  eps1: number;
+  eps2: number;
+  eps3: number;
+  H2: number;
+}
+
+/**
+ * eps1 = phi'^2/2, eps2 = d ln eps1/dN = 2 phi''/phi' = -2(3 - eps1) u/phi',
+ * eps3 = d ln eps2/dN, from the analytic derivative of eps2 (no finite differences):
+ *   eps2 eps3 = -(2/phi') [ (3 - eps1) u' - u (eps1 eps2 + (3 - eps1) eps2/2) ].
+ * When u vanishes identically (power-law inflation) eps2 = 0 and eps3 is reported as 0.
+ */
+export function flowState(
+  evaluate: PotentialEvaluator,
+  params: Float64Array,
+  phi: number,
+  u: number,
+  buf: Float64Array = new Float64Array(3),
+): FlowState {
+  evaluate(phi, params, buf);
+  const v = buf[0]!;
+  const dlnV = buf[1]! / v;
+  const d2lnV = buf[2]! / v - dlnV * dlnV;
+  const dphi = u - dlnV;
+  const eps1 = 0.5 * dphi * dphi;
+  const du = -(3 - eps1) * u + d2lnV * dphi;
+  const eps2 = (-2 * (3 - eps1) * u) / dphi;
+  const eps2eps3 = (-2 / dphi) * ((3 - eps1) * du - u * (eps1 * eps2 + 0.5 * (3 - eps1) * eps2));
+  const eps3 = eps2 === 0 ? 0 : eps2eps3 / eps2;
+  return { V: v, dphi, eps1, eps2, eps3, H2: v / (3 - eps1) };
+}

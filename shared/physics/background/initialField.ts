@@ -1,0 +1,136 @@
+import type { PotentialEvaluator } from '../potential/types.ts';
+import type { EndCondition } from './integrateBackground.ts';
+
+/**
+ * Automatic start of the background: bracket upward from the end of inflation. The slow-roll
+ * end (eps_V = 1) or the given end field is found on a grid over the family's field domain, then
+ * the slow-roll e-fold integral N = ∫ V/|V'| dphi is accumulated uphill until it reaches the
+ * target. This is only a starting guess; the caller measures the real number of e-folds with the
+ * full equations and asks again with a larger target if they fall short.
+ */
+export interface FieldDomain {
+  min: number;
+  max: number;
+}
+
+export type InitialFieldResult = { ok: true; phi0: number } | { ok: false; status: 'no_inflation' | 'too_few_efolds'; reason: string };
+
+/** Grid steps over the domain; the guess only has to be good enough for the full equations to check. */
+const GRID = 256;
+const GAUSS_X = [-0.9602898564975363, -0.7966664774136267, -0.5255324099163290, -0.1834346424956498, 0.1834346424956498, 0.5255324099163290, 0.7966664774136267, 0.9602898564975363];
+const GAUSS_W = [0.1012285362903763, 0.2223810344533745, 0.3137066458778873, 0.3626837833783620, 0.3626837833783620, 0.3137066458778873, 0.2223810344533745, 0.1012285362903763];
+
+interface SlowRoll {
+  /** V/|V'| (e-folds per unit field), NaN where the potential is not positive and finite. */
+  efoldDensity(phi: number): number;
+  epsV(phi: number): number;
+  slope(phi: number): number;
+}
+
+function slowRoll(evaluate: PotentialEvaluator, params: Float64Array): SlowRoll {
+  const buf = new Float64Array(3);
+  const at = (phi: number): void => evaluate(phi, params, buf);
+  const positive = (): boolean => buf[0]! > 0 && Number.isFinite(buf[0]!) && Number.isFinite(buf[1]!);
+  return {
+    efoldDensity: (phi) => (at(phi), positive() ? buf[0]! / Math.abs(buf[1]!) : Number.NaN),
+    epsV: (phi) => (at(phi), positive() ? 0.5 * (buf[1]! / buf[0]!) ** 2 : Number.NaN),
+    slope: (phi) => (at(phi), buf[1]!),
+  };
+}
+
+/** Gauss–Legendre (8 points) of V/|V'| over [a, b]; nodes never touch a hilltop's exact maximum. */
+function efoldsBetween(sr: SlowRoll, a: number, b: number): number {
+  const mid = 0.5 * (a + b);
+  const half = 0.5 * Math.abs(b - a);
+  let sum = 0;
+  for (let i = 0; i < 8; i++) sum += GAUSS_W[i]! * sr.efoldDensity(mid + half * GAUSS_X[i]!);
+  return sum * half;
+}
+
+function bisect(f: (x: number) => number, a: number, b: number): number {
+  let fa = f(a);
+  for (let i = 0; i < 60; i++) {
+    const m = 0.5 * (a + b);
+    const fm = f(m);
+    if (fm === 0) return m;
+    if ((fm < 0) === (fa < 0)) (a = m), (fa = fm);
+    else b = m;
+  }
+  return 0.5 * (a + b);
+}
+
+/** Walks uphill from `start` in direction `dir` until `target` slow-roll e-folds are collected. */
+function walkUphill(sr: SlowRoll, start: number, dir: number, domain: FieldDomain, target: number): { phi0?: number; collected: number } {
+  const h = (domain.max - domain.min) / GRID;
+  let collected = 0;
+  let phi = start;
+  const startSlope = Math.sign(sr.slope(start));
+  for (let i = 0; i < 2 * GRID; i++) {
+    const next = phi + dir * h;
+    if (next < domain.min - 1e-12 * h || next > domain.max + 1e-12 * h) break;
+    const gained = efoldsBetween(sr, phi, next);
+    if (!Number.isFinite(gained)) return { collected };
+    if (collected + gained >= target) {
+      const base = phi;
+      const need = target - collected;
+      return { phi0: bisect((x) => efoldsBetween(sr, base, x) - need, base, next), collected: target };
+    }
+    collected += gained;
+    // Leaving the slow-roll region or passing over a maximum ends the walk.
+    if (Math.sign(sr.slope(next)) !== startSlope || sr.epsV(next) >= 1) return { collected };
+    phi = next;
+  }
+  return { collected };
+}
+
+/** Field values where eps_V crosses 1, each with the uphill direction into the inflating side. */
+function slowRollEnds(sr: SlowRoll, domain: FieldDomain): Array<{ phi: number; dir: number }> {
+  const h = (domain.max - domain.min) / GRID;
+  const ends: Array<{ phi: number; dir: number }> = [];
+  let prev = sr.epsV(domain.min) - 1;
+  for (let i = 1; i <= GRID; i++) {
+    const x = domain.min + i * h;
+    const cur = sr.epsV(x) - 1;
+    if (Number.isFinite(prev) && Number.isFinite(cur) && (prev < 0) !== (cur < 0)) {
+      const phi = bisect((p) => sr.epsV(p) - 1, x - h, x);
+      const dir = cur < 0 ? 1 : -1;
+      // The field must roll toward this point: V rises into the inflating side.
+      if (Math.sign(sr.slope(phi)) === dir) ends.push({ phi, dir });
+    }
+    prev = cur;
+  }
+  return ends;
+}
+
+export function findInitialField(
+  evaluate: PotentialEvaluator,
+  params: Float64Array,
+  domain: FieldDomain,
+  end: EndCondition,
+  targetEfolds: number,
+): InitialFieldResult {
+  const sr = slowRoll(evaluate, params);
+  const starts = end.kind === 'field'
+    ? [{ phi: end.phiEnd, dir: Math.sign(sr.slope(end.phiEnd)) }]
+    : slowRollEnds(sr, domain);
+  if (starts.length === 0 || starts.every((s) => s.dir === 0)) {
+    return {
+      ok: false,
+      status: 'no_inflation',
+      reason: end.kind === 'field'
+        ? `the potential is flat or not positive at end-phi = ${end.phiEnd}`
+        : `no slow-roll region (eps_V < 1 ending at eps_V = 1) in phi ∈ [${domain.min}, ${domain.max}]`,
+    };
+  }
+  let best = 0;
+  for (const s of starts) {
+    const walk = walkUphill(sr, s.phi, s.dir, domain, targetEfolds);
+    if (walk.phi0 !== undefined) return { ok: true, phi0: walk.phi0 };
+    best = Math.max(best, walk.collected);
+  }
+  return {
+    ok: false,
+    status: 'too_few_efolds',
+    reason: `only about ${best.toFixed(1)} slow-roll e-folds are available in phi ∈ [${domain.min}, ${domain.max}], ${targetEfolds.toFixed(1)} needed`,
+  };
+}
