@@ -1,4 +1,7 @@
-import { Outcome, Solver } from 'odex';
+import { Solver as OdexSolver, type Solver } from 'odex';
+
+// odex's Outcome enum; Node cannot see it as a named export of the CommonJS module.
+const Outcome = { Converged: 0, EarlyReturn: 2 } as const;
 
 /**
  * Thin layer over odex: one configured solver per system size, reused across calls (it holds
@@ -17,7 +20,7 @@ export interface SolverSettings {
 }
 
 export function createSolver(dimension: number, settings: SolverSettings): Solver {
-  const solver = new Solver(dimension);
+  const solver = new OdexSolver(dimension);
   solver.relativeTolerance = settings.rtol;
   solver.absoluteTolerance = settings.atol;
   solver.maxSteps = settings.maxSteps ?? 100_000;

@@ -8,13 +8,14 @@ import type { PointInput, PointResult, PointStatus } from './types.ts';
 /** First guess of N_* when it follows from reheating (typical values are 45–60). */
 const REHEATING_GUESS = 60;
 
-function failed(status: PointStatus, reason: string, evaluations: number): PointResult {
+function failed(status: PointStatus, reason: string, evaluations: number, known: Partial<PointResult> = {}): PointResult {
   const nan = Number.NaN;
   return {
     status, reason, evaluations,
     nTotal: nan, nPivot: nan, phiStart: nan, phiEnd: nan, phiPivot: nan, deltaPhi: nan,
     eps1: nan, eps2: nan, eps3: nan, ns: nan, r: nan, nt: nan, alphaS: nan,
     As: nan, amplitude: nan, energyScaleGeV: nan, hubbleGeV: nan,
+    ...known,
   };
 }
 
@@ -34,21 +35,22 @@ export function computePoint(input: PointInput): PointResult {
     evaluations += run.evaluations;
     if (!run.ok) return failed(run.status, run.reason, evaluations);
     const { background } = run;
+    const last = background.trajectory.n.length - 1;
+    const phiEnd = background.trajectory.phi[last]!;
+    const known = { nTotal: background.nEnd, phiStart: run.phi0, phiEnd };
+    const tooShort = (nPivot: number) => failed('too_few_efolds',
+      `inflation lasts ${background.nEnd.toFixed(2)} e-folds from phi0 = ${run.phi0}, fewer than N_* = ${nPivot.toFixed(2)}`, evaluations, known);
+    if (input.pivot.kind === 'efolds' && background.nEnd < needed) return tooShort(input.pivot.efolds);
     const pivot = findPivotState(input, background, nPivotNeeded);
     evaluations += pivot.evaluations;
     if (!(pivot.nPivot > 0)) {
-      return failed('too_few_efolds', `the reheating history puts the pivot at N_* = ${pivot.nPivot.toFixed(2)}, which is not after the start`, evaluations);
+      return failed('too_few_efolds', `the reheating history puts the pivot at N_* = ${pivot.nPivot.toFixed(2)}, which is not after the start`, evaluations, known);
     }
-    const roomNeeded = input.phi0 === undefined ? pivot.nPivot + margin : pivot.nPivot;
-    if (background.nEnd < roomNeeded) {
-      if (input.phi0 !== undefined || input.pivot.kind === 'efolds') {
-        return failed('too_few_efolds', `inflation lasts ${background.nEnd.toFixed(2)} e-folds from phi0 = ${run.phi0}, fewer than N_* = ${pivot.nPivot.toFixed(2)}`, evaluations);
-      }
+    if (background.nEnd < (input.phi0 === undefined ? pivot.nPivot + margin : pivot.nPivot)) {
+      if (input.phi0 !== undefined) return tooShort(pivot.nPivot);
       nPivotNeeded = pivot.nPivot + 1;
       continue;
     }
-    const last = background.trajectory.n.length - 1;
-    const phiEnd = background.trajectory.phi[last]!;
     const fast = fastObservables(pivot.flow);
     const amplitude = input.targetAs / pivot.As;
     const result: PointResult = {

@@ -1,0 +1,32 @@
+import type { PointResult } from '../shared/physics/point/types.ts';
+
+/** JSON numbers cannot be NaN: failed points print null for what was not computed. */
+export function toJson(value: unknown): string {
+  return JSON.stringify(value, (_key, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? null : v));
+}
+
+const ROWS: Array<[keyof PointResult, string]> = [
+  ['nTotal', 'total e-folds'], ['nPivot', 'N_* (pivot to end)'], ['phiStart', 'phi at start'],
+  ['phiPivot', 'phi at pivot'], ['phiEnd', 'phi at end'], ['deltaPhi', 'field excursion'],
+  ['eps1', 'eps1'], ['eps2', 'eps2'], ['eps3', 'eps3'], ['ns', 'n_s'], ['r', 'r'], ['nt', 'n_t'],
+  ['alphaS', 'alpha_s'], ['As', 'A_s (V as given)'], ['amplitude', 'V factor for target A_s'],
+  ['energyScaleGeV', 'V_*^(1/4) [GeV]'], ['hubbleGeV', 'H_* [GeV]'],
+];
+
+const format = (x: number): string => (Number.isFinite(x) ? x.toPrecision(10) : '—');
+
+export function printPoint(result: PointResult, json: boolean): void {
+  if (json) {
+    process.stdout.write(`${toJson(result)}\n`);
+    return;
+  }
+  const lines = [`status  ${result.status}${result.reason ? ` — ${result.reason}` : ''}`];
+  if (result.status === 'ok') {
+    for (const [key, label] of ROWS) lines.push(`${label.padEnd(26)}${format(result[key] as number)}`);
+    if (result.exact) {
+      lines.push('exact spectra (Mukhanov–Sasaki):');
+      for (const [key, value] of Object.entries(result.exact)) lines.push(`  ${key.padEnd(24)}${format(value)}`);
+    }
+  }
+  process.stdout.write(`${lines.join('\n')}\n`);
+}
