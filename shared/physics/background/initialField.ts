@@ -68,6 +68,8 @@ function walkUphill(sr: SlowRoll, start: number, dir: number, domain: FieldDomai
   for (let i = 0; i < 2 * GRID; i++) {
     const next = phi + dir * h;
     if (next < domain.min - 1e-12 * h || next > domain.max + 1e-12 * h) break;
+    // Steep right from the start: there is no slow-roll region to collect from.
+    if (i === 0 && !(sr.epsV(next) < 1)) return { collected: 0 };
     const gained = efoldsBetween(sr, phi, next);
     if (!Number.isFinite(gained)) return { collected };
     if (collected + gained >= target) {
@@ -127,6 +129,9 @@ export function findInitialField(
     const walk = walkUphill(sr, s.phi, s.dir, domain, targetEfolds);
     if (walk.phi0 !== undefined) return { ok: true, phi0: walk.phi0 };
     best = Math.max(best, walk.collected);
+  }
+  if (best === 0) {
+    return { ok: false, status: 'no_inflation', reason: `eps_V >= 1 next to the end of inflation in phi ∈ [${domain.min}, ${domain.max}]: the potential is too steep to inflate` };
   }
   return {
     ok: false,

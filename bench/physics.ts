@@ -1,0 +1,73 @@
+import { execFileSync } from 'node:child_process';
+import { fileURLToPath } from 'node:url';
+import { computePoint } from '../shared/physics/point/computePoint.ts';
+import { preparePoint, preparePotential } from '../shared/physics/point/preparePoint.ts';
+import type { PointInput } from '../shared/physics/point/types.ts';
+import { pointRequestSchema, type PotentialSpec } from '../shared/plan/pointRequest.ts';
+import { callsPerCpuSecond } from './measure.ts';
+
+/** The benchmark's work: one Starobinsky point per call, N_* cycling over 64 values in [50, 60]. */
+const PIVOTS = Array.from({ length: 64 }, (_, i) => 50 + (10 * i) / 63);
+const STAROBINSKY_EXPRESSION = 'V0 * (1 - exp(-sqrt(2/3) * phi))^2';
+
+function inputs(potential: PotentialSpec, exact: boolean, rtol?: number): PointInput[] {
+  const prepared = preparePotential(potential, []);
+  return PIVOTS.map((efolds) => preparePoint(pointRequestSchema.parse({
+    potential, pivot: { efolds }, exact, ...(rtol === undefined ? {} : { precision: { rtol } }),
+  }), prepared));
+}
+
+function rate(potential: PotentialSpec, exact: boolean, seconds: number): number {
+  const work = inputs(potential, exact);
+  return callsPerCpuSecond((i) => {
+    const result = computePoint(work[i % work.length]!);
+    if (result.status !== 'ok') throw new Error(`benchmark point failed: ${result.reason}`);
+  }, seconds, exact ? 30 : 200);
+}
+
+/** Largest |n_s| difference between the default precision and rtol = 1e-12 over the benchmark's points. */
+function nsErrorAtDefault(exact: boolean): number {
+  const coarse = inputs({ family: 'starobinsky' }, exact);
+  const fine = inputs({ family: 'starobinsky' }, exact, 1e-12);
+  let worst = 0;
+  for (let i = 0; i < PIVOTS.length; i += 4) {
+    const a = computePoint(coarse[i]!);
+    const b = computePoint(fine[i]!);
+    worst = Math.max(worst, Math.abs((exact ? a.exact!.ns : a.ns) - (exact ? b.exact!.ns : b.ns)));
+  }
+  return worst;
+}
+
+function scipyBaseline(seconds: number): number {
+  const script = fileURLToPath(new URL('./scipy_baseline.py', import.meta.url));
+  const out = execFileSync('/usr/bin/python3', [script, '--rtol', '1e-8', '--seconds', String(seconds)], { encoding: 'utf8' });
+  return (JSON.parse(out.trim().split('\n').at(-1)!) as { pointsPerSecond: number }).pointsPerSecond;
+}
+
+export interface PhysicsFigures {
+  fastPointsPerSecond: number;
+  customExprPointsPerSecond: number;
+  exactPointsPerSecond: number;
+  baselinePointsPerSecond: number;
+  baselineRatio: number;
+  customExprRatio: number;
+  nsErrorFast: number;
+  nsErrorExact: number;
+}
+
+export function measurePhysics(seconds: number): PhysicsFigures {
+  const fast = rate({ family: 'starobinsky' }, false, seconds);
+  const custom = rate({ expression: STAROBINSKY_EXPRESSION }, false, seconds);
+  const exact = rate({ family: 'starobinsky' }, true, seconds);
+  const baseline = scipyBaseline(seconds);
+  return {
+    fastPointsPerSecond: fast,
+    customExprPointsPerSecond: custom,
+    exactPointsPerSecond: exact,
+    baselinePointsPerSecond: baseline,
+    baselineRatio: fast / baseline,
+    customExprRatio: fast / custom,
+    nsErrorFast: nsErrorAtDefault(false),
+    nsErrorExact: nsErrorAtDefault(true),
+  };
+}

@@ -1,0 +1,89 @@
+"""Performance baseline: a plain scipy script doing what a researcher would write by hand.
+
+DESIGN.md ("Benchmark contract", "Measured on these machines"): the `starobinsky` family,
+background + second-order Hubble-flow observables per point, same work as our fast benchmark.
+Per point (N_* cycling over 50..60):
+  - phi0 on the slow-roll attractor with N_* + 12 slow-roll e-folds (the core's margin of 10 plus
+    its search buffer of 2), from the closed-form slow-roll count and brentq, as our automatic
+    search does; the background is integrated afresh for every point, as in a scan;
+  - solve_ivp(DOP853) on the plain state (phi, phi'), phi'' = -(3 - phi'^2/2)(phi' + V'/V),
+    with a terminal event at eps1 = 1 and dense output to read the pivot N_* before the end;
+  - eps1, eps2 = 2 phi''/phi', eps3 = d ln eps2/dN (from the equation of motion differentiated
+    once more), then n_s and r at second order with C = gamma_E + ln 2 - 2.
+Only the compute loop is timed. Prints one JSON line: {"pointsPerSecond", "points", "rtol"}.
+Usage: /usr/bin/python3 bench/scipy_baseline.py [--rtol 1e-8] [--seconds 5]
+"""
+import argparse
+import json
+import time
+
+import numpy as np
+from scipy.integrate import solve_ivp
+from scipy.optimize import brentq
+
+K = np.sqrt(2.0 / 3.0)
+C = np.euler_gamma + np.log(2.0) - 2.0
+MARGIN = 12.0
+
+
+def V(x):
+    return (1 - np.exp(-K * x)) ** 2
+
+
+def dV(x):
+    return 2 * K * np.exp(-K * x) * (1 - np.exp(-K * x))
+
+
+def d2V(x):
+    return 2 * K * K * np.exp(-K * x) * (2 * np.exp(-K * x) - 1)
+
+
+def rhs(n, y):
+    return [y[1], -(3 - 0.5 * y[1] ** 2) * (y[1] + dV(y[0]) / V(y[0]))]
+
+
+def end_of_inflation(n, y):
+    return 0.5 * y[1] ** 2 - 1
+
+
+end_of_inflation.terminal = True
+
+# Slow roll: eps_V = 1 at phi_e, N(phi) = integral of V/V' from phi_e = (3/4) e^{K phi} - sqrt(3/8) phi + const.
+PHI_E = np.log(1 + 2 / np.sqrt(3)) / K
+n_sr = lambda x: 0.75 * (np.exp(K * x) - np.exp(K * PHI_E)) - np.sqrt(3 / 8) * (x - PHI_E)
+
+
+def point(n_star, rtol, atol):
+    phi0 = brentq(lambda x: n_sr(x) - (n_star + MARGIN), PHI_E, 30.0)
+    sol = solve_ivp(rhs, (0.0, 1000.0), [phi0, -dV(phi0) / V(phi0)], method="DOP853",
+                    rtol=rtol, atol=atol, dense_output=True, events=end_of_inflation)
+    n_end = sol.t_events[0][0]
+    phi, x = sol.sol(n_end - n_star)
+    l1, l2 = dV(phi) / V(phi), d2V(phi) / V(phi) - (dV(phi) / V(phi)) ** 2
+    a = -(3 - 0.5 * x * x) * (x + l1)                        # phi''
+    b = x * a * (x + l1) - (3 - 0.5 * x * x) * (a + l2 * x)  # phi'''
+    e1, e2 = 0.5 * x * x, 2 * a / x
+    e3 = 2 * (b / x - (a / x) ** 2) / e2
+    ns = 1 - 2 * e1 - e2 - 2 * e1**2 - (2 * C + 3) * e1 * e2 - C * e2 * e3
+    r = 16 * e1 * (1 + C * e2)
+    return ns, r
+
+
+def main():
+    parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    parser.add_argument("--rtol", type=float, default=1e-8)
+    parser.add_argument("--atol", type=float, default=1e-14)
+    parser.add_argument("--seconds", type=float, default=5.0)
+    args = parser.parse_args()
+    pivots = np.linspace(50.0, 60.0, 64)
+    points = 0
+    start = time.perf_counter()
+    while time.perf_counter() - start < args.seconds:
+        point(pivots[points % len(pivots)], args.rtol, args.atol)
+        points += 1
+    elapsed = time.perf_counter() - start
+    print(json.dumps({"pointsPerSecond": points / elapsed, "points": points, "rtol": args.rtol}))
+
+
+if __name__ == "__main__":
+    main()
