@@ -30,3 +30,19 @@ export function printPoint(result: PointResult, json: boolean): void {
   }
   process.stdout.write(`${lines.join('\n')}\n`);
 }
+
+const COLUMNS: Array<[string, (r: PointResult) => number, number]> = [
+  ['N_tot', (r) => r.nTotal, 2], ['phi_*', (r) => r.phiPivot, 3], ['n_s', (r) => r.ns, 5], ['r', (r) => r.r, 5],
+  ['alpha_s', (r) => r.alphaS, 6], ['n_s exact', (r) => r.exact?.ns ?? Number.NaN, 5], ['V^1/4 [GeV]', (r) => r.energyScaleGeV, 3],
+];
+
+/** One line a point, aligned columns; failures show their status instead of numbers. */
+export function printPointTable(rows: Array<{ label: string; result: PointResult }>): void {
+  const cell = (x: number, digits: number): string =>
+    !Number.isFinite(x) ? '—' : Math.abs(x) >= 1e5 || (Math.abs(x) < 1e-3 && x !== 0) ? x.toExponential(digits - 1) : x.toFixed(digits);
+  const header = ['point'.padEnd(14), ...COLUMNS.map(([name]) => name.padStart(13))].join('');
+  const lines = rows.map(({ label, result }) => result.status !== 'ok'
+    ? `${label.padEnd(14)}${result.status}: ${result.reason}`
+    : [label.padEnd(14), ...COLUMNS.map(([, get, digits]) => cell(get(result), digits).padStart(13))].join(''));
+  process.stdout.write(`${[header, ...lines].join('\n')}\n`);
+}
