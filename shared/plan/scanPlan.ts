@@ -24,9 +24,9 @@ const whole = (min: number, max: number) => {
   return z.number({ error }).int({ error }).min(min, { error }).max(max, { error });
 };
 const positive = finite.gt(0, { error: 'must be > 0 (a log range needs positive bounds)' });
-const text = (min: number, max: number) => {
-  const error = unlessMissing(`must be a string of ${min} to ${max} characters`);
-  return z.string({ error }).min(min, { error }).max(max, { error });
+const text = (max: number) => {
+  const error = unlessMissing(`must be a string of at most ${max} characters`);
+  return z.string({ error }).max(max, { error });
 };
 
 /** Exactly one of `keys` present: the union-by-key that zod's union reports only as "invalid input". */
@@ -66,8 +66,8 @@ export type PlanAxis = LinearAxis | LogAxis | ListAxis;
 
 const axisSchema = z
   .strictObject({
-    name: z.string({ error: unlessMissing(`must be a parameter name or ${PIVOT_AXIS}`) })
-      .regex(/^[A-Za-z_][A-Za-z0-9_]{0,63}$/, { error: `must be a parameter name or ${PIVOT_AXIS}` }),
+    // Checked against the potential's parameters in planChecks.ts, which lists the allowed names.
+    name: z.string({ error: unlessMissing(`must be a parameter name or ${PIVOT_AXIS}`) }),
     range: linearRange.optional(),
     logRange: logRange.optional(),
     values: valueList.optional(),
@@ -78,7 +78,7 @@ const axisSchema = z
 
 /** pivotSchema's two forms, told apart by key so that an error names the field inside the form. */
 const planPivotSchema = z
-  .strictObject({ efolds: pivotSchema.options[0].shape.efolds.optional(), reheating: reheatingSchema.optional() })
+  .strictObject({ efolds: pivotSchema.options[0].shape.efolds.optional(), reheating: reheatingSchema.strict().optional() })
   .superRefine(exactlyOne(['efolds', 'reheating']))
   .transform((p) => p as z.infer<typeof pivotSchema>);
 
@@ -95,8 +95,8 @@ const boundSetRef = z.union([
 ]);
 
 export const scanPlanSchema = z.strictObject({
-  title: text(1, 200).refine((t) => t.trim() !== '', { error: 'must not be blank' }),
-  notes: text(0, 20_000).optional(),
+  title: text(200).refine((t) => t.trim() !== '', { error: 'must not be blank' }),
+  notes: text(20_000).optional(),
   potential: planPotentialSchema,
   fixed: z.record(z.string(), finite).optional(),
   axes: z.array(axisSchema)
