@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import { readdirSync, readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { targetAmplitude, DEFAULT_BOUND_SET } from '../../../shared/physics/bounds/boundSet.ts';
+import { DEFAULT_TARGET_AMPLITUDE } from '../../../shared/physics/bounds/boundSet.ts';
 import { preparePoint, preparePotential } from '../../../shared/physics/point/preparePoint.ts';
 import { axisValues, canonicalJson, createPointSource, planHash, planPointCount } from '../../../shared/plan/expandPlan.ts';
 import { pointRequestSchema } from '../../../shared/plan/pointRequest.ts';
@@ -111,9 +111,9 @@ describe('createPointSource', () => {
     expect(source.parameterNames).toEqual(['lambda']);
   });
 
-  it('normalises to the bound set\'s amplitude unless targetAs is given', () => {
+  it('normalises to the default A_s of a single point (2.1e-9) unless targetAs is given', () => {
     const request = createPointSource(plan([{ name: 'mu', values: [10] }])).requestAt(0);
-    expect(request.targetAs).toBe(targetAmplitude(DEFAULT_BOUND_SET));
+    expect(request.targetAs).toBe(DEFAULT_TARGET_AMPLITUDE);
     expect(request.exact).toBe(false);
     expect(request).not.toHaveProperty('precision');
   });
