@@ -1,5 +1,7 @@
 import { Command } from 'commander';
-import { demo } from './commands/demo.ts';
+import { families } from './commands/families.ts';
+import { run } from './commands/run.ts';
+import { serveCommand } from './commands/serve.ts';
 import { point } from './commands/point.ts';
 import { handleError } from './handleError.ts';
 
@@ -8,7 +10,9 @@ const program = new Command('rollway')
   .option('--verbose', 'print stack traces of errors')
   .exitOverride()
   .addCommand(point)
-  .addCommand(demo);
+  .addCommand(families)
+  .addCommand(run)
+  .addCommand(serveCommand);
 
 for (const command of program.commands) command.exitOverride();
 

@@ -28,3 +28,19 @@ export class InvalidInputError extends RollwayError {
     this.name = 'InvalidInputError';
   }
 }
+
+/** The thing named does not exist (or is not visible to the caller, so ids do not leak). */
+export class NotFoundError extends RollwayError {
+  constructor(message: string) {
+    super('not_found', message, 404);
+    this.name = 'NotFoundError';
+  }
+}
+
+/** The request is valid but the thing is in a state that does not allow it. */
+export class ConflictError extends RollwayError {
+  constructor(message: string, code = 'conflict') {
+    super(code, message, 409);
+    this.name = 'ConflictError';
+  }
+}

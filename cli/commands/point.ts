@@ -1,9 +1,7 @@
 import { Command, Option } from 'commander';
 import { InvalidInputError } from '../../shared/errors.ts';
-import { computePoint } from '../../shared/physics/point/computePoint.ts';
-import { preparePoint } from '../../shared/physics/point/preparePoint.ts';
 import { pointRequestSchema, type PointRequestInput } from '../../shared/plan/pointRequest.ts';
-import { parseRequest } from '../parseRequest.ts';
+import { parseRequest } from '../../shared/api/parse.ts';
 import { printPoint } from '../output.ts';
 
 interface PointOptions {
@@ -87,11 +85,15 @@ Examples:
   rollway point --family hilltop --param mu=15 --param q=4 --pivot-efolds 60 --exact
   rollway point --expr "V0*phi^2/(1+phi^2/M^2)" --param M=20 --pivot-efolds 55
   rollway point --family exponential --param lambda=0.2 --end-phi 10 --pivot-efolds 55 --exact`)
-  .action((options: PointOptions) => {
+  .action(async (options: PointOptions) => {
     if (options.family === undefined && options.expr === undefined) {
       throw new InvalidInputError('give a potential with --family <id> or --expr "<V in phi>"', '--family');
     }
     const request = parseRequest(pointRequestSchema, collectRequest(options));
+    // The physics core (mathjs) loads only when a point is computed, keeping --help instant.
+    const [{ computePoint }, { preparePoint }] = await Promise.all([
+      import('../../shared/physics/point/computePoint.ts'), import('../../shared/physics/point/preparePoint.ts'),
+    ]);
     const result = computePoint(preparePoint(request));
     printPoint(result, options.json === true);
   });

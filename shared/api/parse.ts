@@ -1,5 +1,5 @@
 import type { z } from 'zod';
-import { InvalidInputError } from '../shared/errors.ts';
+import { InvalidInputError } from '../errors.ts';
 
 /** Validates data with a shared schema; the first problem becomes an error naming its path. */
 export function parseRequest<S extends z.ZodType>(schema: S, data: unknown): z.infer<S> {

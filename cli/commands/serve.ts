@@ -1,0 +1,33 @@
+import { Command } from 'commander';
+
+/** Starts the API and local workers on the embedded database; runs until interrupted. */
+async function serve(options: { demo?: boolean; port?: string; dataDir?: string }): Promise<void> {
+  // Loaded here, not at the top: the server's dependencies would slow down every other command.
+  const [{ pino }, { loadConfig }, { seedDemo }, { startServer }] = await Promise.all([
+    import('pino'), import('../../server/config.ts'), import('../../server/demo/seedDemo.ts'), import('../../server/startServer.ts'),
+  ]);
+  const config = loadConfig({
+    ...process.env,
+    ...(options.port === undefined ? {} : { PORT: options.port }),
+    ...(options.dataDir === undefined ? {} : { DATA_DIR: options.dataDir }),
+  });
+  const logger = pino({ level: config.logLevel });
+  const server = await startServer(config, logger);
+  if (options.demo) {
+    const submitted = await seedDemo(server.scans);
+    logger.info({ submitted }, submitted.length ? 'demo scans queued' : 'demo scans already stored');
+  }
+  process.stdout.write(`Rollway is listening on ${server.url} (data in ${config.databaseUrl ? 'PostgreSQL' : config.dataDir})\n`);
+  await new Promise<void>((resolve) => {
+    const stop = () => void server.stop().then(resolve);
+    process.once('SIGINT', stop);
+    process.once('SIGTERM', stop);
+  });
+}
+
+export const serveCommand = new Command('serve')
+  .description('run the API server with local workers on the embedded database (./data)')
+  .option('--port <port>', 'port to listen on (env PORT, default 4600)')
+  .option('--data-dir <dir>', 'embedded database folder (env DATA_DIR, default ./data)')
+  .option('--demo', 'queue the example scans of the demo scenario that are not stored yet')
+  .action(serve);

@@ -1,0 +1,34 @@
+import express, { type Express, type Router } from 'express';
+import type { Logger } from 'pino';
+import { pinoHttp } from 'pino-http';
+import type { Database } from './db/client.ts';
+import { errorHandler, notFound } from './middleware/errorHandler.ts';
+import type { ScanEvents } from './scans/scanEvents.ts';
+import { scansRouter } from './scans/scansRouter.ts';
+import type { ScansService } from './scans/scansService.ts';
+import { healthRouter } from './health/healthRouter.ts';
+
+export interface AppDeps {
+  db: Database;
+  logger: Logger;
+  scans: ScansService;
+  events: ScanEvents;
+  /** Routers mounted under /api/v1/scans/:id/… by features that own scan results. */
+  scanFeatures?: Router[];
+}
+
+/** The HTTP app without listening, so tests can mount it on an ephemeral port. */
+export function createApp(deps: AppDeps): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  app.use(pinoHttp({ logger: deps.logger, autoLogging: { ignore: (req) => req.url === '/api/v1/health' } }));
+  app.use(express.json({ limit: '6mb' }));
+  const api = express.Router();
+  api.use(healthRouter(deps.db));
+  api.use('/scans', scansRouter(deps.scans, deps.events));
+  for (const feature of deps.scanFeatures ?? []) api.use('/scans', feature);
+  app.use('/api/v1', api);
+  app.use('/api', notFound);
+  app.use(errorHandler);
+  return app;
+}

@@ -1,0 +1,75 @@
+import { createScorer } from '../../shared/physics/bounds/score.ts';
+import { computePoint } from '../../shared/physics/point/computePoint.ts';
+import { preparePoint, preparePotential, type PreparedPotential } from '../../shared/physics/point/preparePoint.ts';
+import { createPointSource, type PointSource } from '../../shared/plan/expandPlan.ts';
+import { planBoundSet, type ScanPlan } from '../../shared/plan/scanPlan.ts';
+import type { NewPointResultRow } from '../db/schema/pointResults.ts';
+
+export interface BatchTask {
+  scanId: number;
+  /** Identifies the plan so a worker compiles it once, not once per batch. */
+  planHash: string;
+  plan: ScanPlan;
+  firstIndex: number;
+  pointCount: number;
+}
+
+export interface BatchOutput {
+  rows: NewPointResultRow[];
+  computeSeconds: number;
+}
+
+interface CompiledPlan {
+  source: PointSource;
+  prepared: PreparedPotential;
+  score: ReturnType<typeof createScorer>;
+}
+
+const compiled = new Map<string, CompiledPlan>();
+const CACHE_LIMIT = 16;
+
+function compile(task: BatchTask): CompiledPlan {
+  const hit = compiled.get(task.planHash);
+  if (hit) return hit;
+  const source = createPointSource(task.plan);
+  const entry = { source, prepared: preparePotential(source.potential, source.parameterNames), score: createScorer(planBoundSet(task.plan)) };
+  if (compiled.size >= CACHE_LIMIT) compiled.delete(compiled.keys().next().value!);
+  compiled.set(task.planHash, entry);
+  return entry;
+}
+
+const orNull = (x: number | undefined): number | null => (x === undefined || !Number.isFinite(x) ? null : x);
+
+/** Computes one batch of a scan's points; a failed point is a row with its status, never a throw. */
+export function computeBatch(task: BatchTask): BatchOutput {
+  const { source, prepared, score } = compile(task);
+  const rows: NewPointResultRow[] = [];
+  const started = performance.now();
+  for (let index = task.firstIndex; index < task.firstIndex + task.pointCount; index++) {
+    const request = source.requestAt(index);
+    const t0 = performance.now();
+    const result = computePoint(preparePoint(request, prepared));
+    const computeMs = performance.now() - t0;
+    const scored = result.status === 'ok' ? score(result) : { chi2: Number.NaN, region: null };
+    rows.push({
+      scanId: task.scanId,
+      pointIndex: index,
+      params: { ...request.params, ...source.valuesAt(index) },
+      status: result.status,
+      reason: result.reason,
+      nTotal: orNull(result.nTotal), nPivot: orNull(result.nPivot), phiStart: orNull(result.phiStart),
+      phiEnd: orNull(result.phiEnd), phiPivot: orNull(result.phiPivot), deltaPhi: orNull(result.deltaPhi),
+      eps1: orNull(result.eps1), eps2: orNull(result.eps2), eps3: orNull(result.eps3),
+      ns: orNull(result.ns), r: orNull(result.r), nt: orNull(result.nt), alphaS: orNull(result.alphaS),
+      As: orNull(result.As), amplitude: orNull(result.amplitude),
+      energyScaleGeV: orNull(result.energyScaleGeV), hubbleGeV: orNull(result.hubbleGeV),
+      exactNs: orNull(result.exact?.ns), exactR: orNull(result.exact?.r), exactNt: orNull(result.exact?.nt),
+      exactAlphaS: orNull(result.exact?.alphaS), exactAs: orNull(result.exact?.As), exactAmplitude: orNull(result.exact?.amplitude),
+      chi2: orNull(scored.chi2),
+      region: scored.region,
+      computeMs,
+      evaluations: result.evaluations,
+    });
+  }
+  return { rows, computeSeconds: (performance.now() - started) / 1000 };
+}

@@ -1,0 +1,135 @@
+import { hostname } from 'node:os';
+import { Piscina } from 'piscina';
+import type { Logger } from 'pino';
+import type { ScanPlan } from '../../shared/plan/scanPlan.ts';
+import type { Database } from '../db/client.ts';
+import type { Batch } from '../db/schema/batches.ts';
+import { insertPointResults } from '../db/resultsWriter.ts';
+import type { ScanEvents } from '../scans/scanEvents.ts';
+import { addComputeSeconds, claimBatches, failBatch, findScan, releaseAllBatches, releaseBatch, settleScan, updateScan } from '../scans/scansRepository.ts';
+import { toScanView } from '../scans/scanView.ts';
+import type { BatchOutput, BatchTask } from './computeBatch.ts';
+import type { Dispatcher } from './dispatcher.ts';
+
+export interface LocalDispatcherOptions {
+  db: Database;
+  events: ScanEvents;
+  logger: Logger;
+  workers: number;
+}
+
+const POLL_MS = 500;
+const LEASE_SECONDS = 600;
+const MAX_ATTEMPTS = 3;
+
+/**
+ * Keeps every worker thread busy: claims pending batches from the database (twice as many as
+ * there are threads, so a thread never waits on a write), computes them in the pool and writes
+ * each batch's results in one transaction.
+ */
+export function createLocalDispatcher({ db, events, logger, workers }: LocalDispatcherOptions): Dispatcher {
+  const pool = new Piscina({ filename: new URL('./batch.worker.mjs', import.meta.url).href, minThreads: workers, maxThreads: workers });
+  const workerId = `${hostname()}:${process.pid}`;
+  const plans = new Map<number, { plan: ScanPlan; planHash: string }>();
+  const inFlight = new Set<Promise<void>>();
+  const aborters = new Map<number, Set<AbortController>>();
+  let running = false;
+  let pumping = false;
+  let timer: NodeJS.Timeout | undefined;
+
+  const planOf = async (scanId: number) => {
+    const cached = plans.get(scanId);
+    if (cached) return cached;
+    const scan = await findScan(db, scanId);
+    if (!scan) return undefined;
+    const entry = { plan: scan.plan as unknown as ScanPlan, planHash: scan.planHash };
+    plans.set(scanId, entry);
+    return entry;
+  };
+
+  const finish = async (batch: Batch, output: BatchOutput): Promise<void> => {
+    await insertPointResults(db, batch, output.rows);
+    await addComputeSeconds(db, batch.scanId, output.computeSeconds);
+    const scan = await settleScan(db, batch.scanId);
+    if (scan) events.publish(toScanView(scan));
+  };
+
+  const fail = async (batch: Batch, error: unknown): Promise<void> => {
+    const message = error instanceof Error ? error.message : String(error);
+    logger.error({ err: error, batchId: batch.id, scanId: batch.scanId }, 'batch failed');
+    if ((await failBatch(db, batch, message, MAX_ATTEMPTS)) === 'failed') {
+      const scan = await updateScan(db, batch.scanId, { state: 'failed', error: `batch at point ${batch.firstIndex}: ${message}`, finishedAt: new Date() });
+      if (scan) events.publish(toScanView(scan));
+    }
+  };
+
+  const run = async (batch: Batch): Promise<void> => {
+    const source = await planOf(batch.scanId);
+    if (!source) return; // deleted while queued
+    const task: BatchTask = { scanId: batch.scanId, ...source, firstIndex: batch.firstIndex, pointCount: batch.pointCount };
+    const aborter = new AbortController();
+    const mine = aborters.get(batch.scanId) ?? new Set<AbortController>();
+    aborters.set(batch.scanId, mine.add(aborter));
+    let output: BatchOutput;
+    try {
+      output = (await pool.run(task, { signal: aborter.signal })) as BatchOutput;
+    } catch (error) {
+      if (aborter.signal.aborted) await releaseBatch(db, batch.id);
+      else await fail(batch, error);
+      return;
+    } finally {
+      mine.delete(aborter);
+    }
+    try {
+      await finish(batch, output);
+    } catch (error) {
+      // A scan deleted mid-batch takes its batches with it; the insert then has nothing to refer to.
+      if (await findScan(db, batch.scanId)) throw error;
+    }
+  };
+
+  const pump = async (): Promise<void> => {
+    if (!running || pumping) return;
+    pumping = true;
+    try {
+      while (running && inFlight.size < 2 * workers) {
+        const claimed = await claimBatches(db, 2 * workers - inFlight.size, workerId, LEASE_SECONDS);
+        if (claimed.length === 0) break;
+        for (const batch of claimed) {
+          const job = run(batch)
+            .catch((error: unknown) => logger.error({ err: error }, 'writing a batch failed'))
+            .finally(() => {
+              inFlight.delete(job);
+              void pump();
+            });
+          inFlight.add(job);
+        }
+      }
+    } finally {
+      pumping = false;
+    }
+  };
+
+  return {
+    async start() {
+      const released = await releaseAllBatches(db);
+      if (released > 0) logger.info({ released }, 'resuming batches left unfinished by the last run');
+      running = true;
+      timer = setInterval(() => void pump(), POLL_MS);
+      await pump();
+    },
+    notify() {
+      void pump();
+    },
+    cancel(scanId) {
+      for (const aborter of aborters.get(scanId) ?? []) aborter.abort();
+      aborters.delete(scanId);
+    },
+    async stop() {
+      running = false;
+      clearInterval(timer);
+      await Promise.allSettled([...inFlight]);
+      await pool.destroy();
+    },
+  };
+}

@@ -1,0 +1,82 @@
+import type { ResultColumn } from './resultColumns.ts';
+
+// PostgreSQL's binary COPY format (docs: "COPY", section "Binary Format"). Binary rather than
+// CSV because PGlite's WebAssembly float8 parser costs ~2 µs a value: CSV and JSON inputs top
+// out near 15,000 rows/s for our 30 doubles a row, binary COPY runs at about 4x that.
+
+const SIGNATURE = [0x50, 0x47, 0x43, 0x4f, 0x50, 0x59, 0x0a, 0xff, 0x0d, 0x0a, 0x00]; // "PGCOPY\n\377\r\n\0"
+const HEADER_BYTES = SIGNATURE.length + 8; // + flags (int32) + header extension length (int32)
+const JSONB_VERSION = 1;
+const utf8 = new TextEncoder();
+
+class ByteSink {
+  bytes = new Uint8Array(1 << 16);
+  view = new DataView(this.bytes.buffer);
+  at = 0;
+
+  reserve(n: number): void {
+    if (this.at + n <= this.bytes.length) return;
+    const grown = new Uint8Array(Math.max(this.bytes.length * 2, this.at + n));
+    grown.set(this.bytes.subarray(0, this.at));
+    this.bytes = grown;
+    this.view = new DataView(grown.buffer);
+  }
+}
+
+function writeNull(b: ByteSink): void {
+  b.reserve(4);
+  b.view.setInt32(b.at, -1);
+  b.at += 4;
+}
+
+function writeBytes(b: ByteSink, prefix: number | undefined, payload: Uint8Array): void {
+  const length = payload.length + (prefix === undefined ? 0 : 1);
+  b.reserve(4 + length);
+  b.view.setInt32(b.at, length);
+  b.at += 4;
+  if (prefix !== undefined) b.bytes[b.at++] = prefix;
+  b.bytes.set(payload, b.at);
+  b.at += payload.length;
+}
+
+function writeValue(b: ByteSink, column: ResultColumn, value: unknown): void {
+  if (value === null || value === undefined) return writeNull(b);
+  switch (column.kind) {
+    case 'float8':
+      // Non-finite observables are stored as NULL (see schema/pointResults.ts).
+      if (typeof value !== 'number' || !Number.isFinite(value)) return writeNull(b);
+      b.reserve(12);
+      b.view.setInt32(b.at, 8);
+      b.view.setFloat64(b.at + 4, value);
+      b.at += 12;
+      return;
+    case 'int4':
+      b.reserve(8);
+      b.view.setInt32(b.at, 4);
+      b.view.setInt32(b.at + 4, value as number);
+      b.at += 8;
+      return;
+    case 'text':
+      return writeBytes(b, undefined, utf8.encode(String(value)));
+    case 'jsonb':
+      return writeBytes(b, JSONB_VERSION, utf8.encode(JSON.stringify(value)));
+  }
+}
+
+/** Encodes rows as one binary COPY stream with the given columns, in that order. */
+export function encodeCopyBinary(columns: readonly ResultColumn[], rows: readonly Record<string, unknown>[]): Uint8Array {
+  const b = new ByteSink();
+  b.reserve(HEADER_BYTES);
+  b.bytes.set(SIGNATURE, 0);
+  b.at = HEADER_BYTES; // flags and extension length stay 0
+  for (const row of rows) {
+    b.reserve(2);
+    b.view.setInt16(b.at, columns.length);
+    b.at += 2;
+    for (const column of columns) writeValue(b, column, row[column.key] ?? column.fallback);
+  }
+  b.reserve(2);
+  b.view.setInt16(b.at, -1);
+  b.at += 2;
+  return b.bytes.subarray(0, b.at);
+}

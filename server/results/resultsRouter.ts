@@ -1,0 +1,28 @@
+import { Router } from 'express';
+import { parseDownloadQuery, parseHeatmapQuery, parseResultsQuery } from '../../shared/api/results.ts';
+import type { Database } from '../db/client.ts';
+import { scanId } from '../scans/scansRouter.ts';
+import { createResultsService } from './resultsService.ts';
+import { writeChunks } from './writeChunks.ts';
+
+/** Results of one scan, mounted under /api/v1/scans (see AppDeps.scanFeatures). */
+export function resultsRouter(db: Database): Router {
+  const service = createResultsService(db);
+  const router = Router();
+  router.get('/:id/results', async (req, res) => {
+    res.json(await service.page(scanId(req.params.id), parseResultsQuery(req.query)));
+  });
+  router.get('/:id/summary', async (req, res) => {
+    res.json(await service.summary(scanId(req.params.id)));
+  });
+  router.get('/:id/heatmap', async (req, res) => {
+    res.json(await service.heatmap(scanId(req.params.id), parseHeatmapQuery(req.query)));
+  });
+  // Streamed: headers go out once the scan and query are checked, then one write per page.
+  router.get('/:id/download', async (req, res) => {
+    const download = await service.download(scanId(req.params.id), parseDownloadQuery(req.query));
+    res.attachment(download.filename).type(download.contentType);
+    await writeChunks(res, download.chunks);
+  });
+  return router;
+}
