@@ -1,16 +1,25 @@
 /**
- * `npm run bench [-- --json] [-- --seconds S]`: speed figures of the physics core on one core,
+ * `npm run bench [-- --json] [-- --seconds S] [-- --service-points N (0 skips)]`: speed figures of the physics core on one core,
  * beside a plain scipy script doing the same work at the same tolerance. With --json the last
  * line is one JSON object (the benchmark contract in DESIGN.md).
  */
+import { availableParallelism } from 'node:os';
 import { measurePhysics } from './physics.ts';
+import { measureService } from './service.ts';
 
 const args = process.argv.slice(2);
 const json = args.includes('--json');
 const secondsArg = args.indexOf('--seconds');
 const seconds = secondsArg >= 0 ? Number(args[secondsArg + 1]) : 3;
 
-const figures = measurePhysics(seconds);
+const pointsArg = args.indexOf('--service-points');
+const servicePoints = pointsArg >= 0 ? Number(args[pointsArg + 1]) : 100_000;
+const physics = measurePhysics(seconds);
+const workers = availableParallelism();
+const service = servicePoints > 0 ? await measureService(servicePoints, workers) : undefined;
+// The raw compute rate the service is compared with: the one-core rate times the worker threads.
+const serviceRawRatio = service ? service.servicePointsPerSecond / (physics.fastPointsPerSecond * workers) : undefined;
+const figures = { ...physics, ...service, ...(serviceRawRatio === undefined ? {} : { serviceRawRatio }) };
 const rows: Array<[string, string]> = [
   ['fast path, starobinsky (points/s, one core)', figures.fastPointsPerSecond.toFixed(0)],
   ['fast path, same potential as custom expression', figures.customExprPointsPerSecond.toFixed(0)],
@@ -21,5 +30,13 @@ const rows: Array<[string, string]> = [
   ['largest |Δn_s| fast, default vs rtol 1e-12', figures.nsErrorFast.toExponential(1)],
   ['largest |Δn_s| exact, default vs rtol 1e-12', figures.nsErrorExact.toExponential(1)],
 ];
+if (service) {
+  rows.push(
+    [`service, ${service.servicePoints} points, ${workers} workers (points/s)`, service.servicePointsPerSecond.toFixed(0)],
+    ['  service / (one-core rate x workers)', serviceRawRatio!.toFixed(2)],
+    ['  server peak memory (MB)', service.serverPeakMB.toFixed(0)],
+    ['  sorted, filtered 1,000-row page, median (ms)', service.pageQueryMedianMs.toFixed(1)],
+  );
+}
 for (const [label, value] of rows) process.stdout.write(`${label.padEnd(50)}${value}\n`);
 if (json) process.stdout.write(`${JSON.stringify(figures)}\n`);
