@@ -6,7 +6,7 @@ import type { Database } from '../db/client.ts';
 import type { Batch } from '../db/schema/batches.ts';
 import { insertPointResults } from '../db/resultsWriter.ts';
 import type { ScanEvents } from '../scans/scanEvents.ts';
-import { addComputeSeconds, claimBatches, failBatch, findScan, releaseAllBatches, releaseBatch, settleScan, updateScan } from '../scans/scansRepository.ts';
+import { claimBatches, failBatch, findScan, releaseAllBatches, releaseBatch, settleScan, updateScan } from '../scans/scansRepository.ts';
 import { toScanView } from '../scans/scanView.ts';
 import type { BatchOutput, BatchTask } from './computeBatch.ts';
 import type { Dispatcher } from './dispatcher.ts';
@@ -49,7 +49,6 @@ export function createLocalDispatcher({ db, events, logger, workers }: LocalDisp
 
   const finish = async (batch: Batch, output: BatchOutput): Promise<void> => {
     await insertPointResults(db, batch, output.rows);
-    await addComputeSeconds(db, batch.scanId, output.computeSeconds);
     const scan = await settleScan(db, batch.scanId);
     if (scan) events.publish(toScanView(scan));
   };

@@ -86,10 +86,6 @@ export async function failBatch(db: Database, batch: Batch, error: string, maxAt
   return outcome;
 }
 
-export async function addComputeSeconds(db: Database, id: number, seconds: number): Promise<void> {
-  await db.update(scans).set({ computeSeconds: sql`${scans.computeSeconds} + ${seconds}` }).where(eq(scans.id, id));
-}
-
 /** Completes the scan when every point has a result; returns the scan as it is now. */
 export async function settleScan(db: Database, id: number): Promise<Scan | undefined> {
   await db.update(scans).set({ state: 'completed', finishedAt: new Date(), updatedAt: new Date() })

@@ -1,0 +1,109 @@
+import { eq } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { openDatabase, type DatabaseHandle } from '../../../server/db/client.ts';
+import { insertPointResults, type WriteMethod } from '../../../server/db/resultsWriter.ts';
+import { batches, pointResults, scans, type NewPointResultRow } from '../../../server/db/schema/index.ts';
+import { failedRow, resultRow, seedScan } from './fixtures.ts';
+
+// One database for the file (opening PGlite costs seconds); every test works in its own scan.
+let handle: DatabaseHandle;
+beforeAll(async () => {
+  handle = await openDatabase();
+}, 60_000);
+afterAll(async () => handle.close());
+
+const nonFiniteToNull = (row: NewPointResultRow) =>
+  Object.fromEntries(Object.entries(row).map(([k, v]) => [k, typeof v === 'number' && !Number.isFinite(v) ? null : v]));
+
+const selectResults = (scanId: number) =>
+  handle.db.select().from(pointResults).where(eq(pointResults.scanId, scanId)).orderBy(pointResults.pointIndex);
+
+// Both writers run on PGlite: 'copy' is the embedded default, 'insert' the PostgreSQL-server path.
+describe.each<WriteMethod>(['copy', 'insert'])('insertPointResults via %s', (method) => {
+  it('round-trips every column bit for bit, storing NaN and ±Infinity as NULL', async () => {
+    const { scan, batches: [batch] } = await seedScan(handle.db, 3, 3);
+    const rows = [resultRow(scan.id, 0), failedRow(scan.id, 1), resultRow(scan.id, 2, { params: { 'mu²': 5e-324, q: 1e308 }, reason: 'quote " comma , ü' })];
+    await insertPointResults(handle.db, batch!, rows, { method });
+    expect(await selectResults(scan.id)).toEqual(rows.map(nonFiniteToNull));
+  });
+
+  it('counts a retried batch once and marks it done', async () => {
+    const { scan, batches: [batch] } = await seedScan(handle.db, 4, 4);
+    const rows = [resultRow(scan.id, 0), failedRow(scan.id, 1), resultRow(scan.id, 2), failedRow(scan.id, 3)];
+    const first = await insertPointResults(handle.db, batch!, rows, { method });
+    const again = await insertPointResults(handle.db, batch!, rows, { method });
+    expect(first).toEqual({ inserted: 4, failed: 2, pointsDone: 4, pointCount: 4 });
+    expect(again).toEqual({ inserted: 0, failed: 0, pointsDone: 4, pointCount: 4 });
+    const [stored] = await handle.db.select().from(scans).where(eq(scans.id, scan.id));
+    expect(stored).toMatchObject({ pointsDone: 4, pointsFailed: 2 });
+    const seconds = rows.reduce((s, r) => s + r.computeMs, 0) / 1000;
+    expect(stored!.computeSeconds).toBeCloseTo(seconds, 12);
+    const [done] = await handle.db.select().from(batches).where(eq(batches.id, batch!.id));
+    expect(done).toMatchObject({ state: 'done', leasedUntil: null });
+    expect(done!.finishedAt).toBeInstanceOf(Date);
+    expect(await selectResults(scan.id)).toHaveLength(4);
+  });
+
+  it('counts only the new rows when a retry overlaps what is stored', async () => {
+    const { scan, batches: [batch] } = await seedScan(handle.db, 3, 3);
+    await insertPointResults(handle.db, batch!, [resultRow(scan.id, 0)], { method });
+    const changed = resultRow(scan.id, 0, { ns: 0.5 });
+    const outcome = await insertPointResults(handle.db, batch!, [changed, failedRow(scan.id, 1), resultRow(scan.id, 2)], { method });
+    expect(outcome).toEqual({ inserted: 2, failed: 1, pointsDone: 3, pointCount: 3 });
+    const stored = await selectResults(scan.id);
+    expect(stored[0]!.ns).toBe(resultRow(scan.id, 0).ns); // the first write wins
+  });
+
+  it('rolls back and throws for a batch that is not the scan’s', async () => {
+    const a = await seedScan(handle.db, 2, 2);
+    const b = await seedScan(handle.db, 2, 2);
+    const wrong = { id: b.batches[0]!.id, scanId: a.scan.id };
+    await expect(insertPointResults(handle.db, wrong, [resultRow(a.scan.id, 0)], { method })).rejects.toThrow(/does not exist/);
+    expect(await selectResults(a.scan.id)).toHaveLength(0);
+    const [stored] = await handle.db.select().from(scans).where(eq(scans.id, a.scan.id));
+    expect(stored!.pointsDone).toBe(0);
+  });
+
+  it('rejects rows of another scan before writing anything', async () => {
+    const { scan, batches: [batch] } = await seedScan(handle.db, 2, 2);
+    await expect(insertPointResults(handle.db, batch!, [resultRow(scan.id + 1, 0)], { method })).rejects.toThrow(/belongs to scan/);
+  });
+
+  it('marks an empty batch done without touching the counters', async () => {
+    const { batches: [batch] } = await seedScan(handle.db, 1, 1);
+    expect(await insertPointResults(handle.db, batch!, [], { method })).toEqual({ inserted: 0, failed: 0, pointsDone: 0, pointCount: 1 });
+    const [done] = await handle.db.select().from(batches).where(eq(batches.id, batch!.id));
+    expect(done!.state).toBe('done');
+  });
+});
+
+describe('insertPointResults', () => {
+  it('writes a 1000-point batch in one call and sorts NULL observables last', async () => {
+    const { scan, batches: [batch] } = await seedScan(handle.db, 1000, 1000);
+    const rows = Array.from({ length: 1000 }, (_, i) => (i % 10 === 0 ? failedRow(scan.id, i) : resultRow(scan.id, i)));
+    expect(await insertPointResults(handle.db, batch!, rows)).toMatchObject({ inserted: 1000, failed: 100 });
+    const top = await handle.db.select({ ns: pointResults.ns }).from(pointResults)
+      .where(eq(pointResults.scanId, scan.id)).orderBy(pointResults.ns).limit(901);
+    expect(top.at(-1)!.ns).toBeNull();
+    expect(top.at(-2)!.ns).not.toBeNull();
+  });
+
+  it('refuses the copy method on a database that is not PGlite', async () => {
+    const { batches: [batch] } = await seedScan(handle.db, 1, 1);
+    const notPglite = Object.create(handle.db, { $client: { value: {} } }) as typeof handle.db;
+    await expect(insertPointResults(notPglite, batch!, [], { method: 'copy' })).rejects.toThrow(/needs the embedded PGlite/);
+  });
+
+  it('deletes a scan’s batches and results with the scan', async () => {
+    const kept = await seedScan(handle.db, 2, 1);
+    const gone = await seedScan(handle.db, 2, 1);
+    for (const s of [kept, gone]) {
+      for (const b of s.batches) await insertPointResults(handle.db, b, [resultRow(s.scan.id, b.firstIndex)]);
+    }
+    await handle.db.delete(scans).where(eq(scans.id, gone.scan.id));
+    expect(await handle.db.$count(batches, eq(batches.scanId, gone.scan.id))).toBe(0);
+    expect(await handle.db.$count(pointResults, eq(pointResults.scanId, gone.scan.id))).toBe(0);
+    expect(await handle.db.$count(batches, eq(batches.scanId, kept.scan.id))).toBe(2);
+    expect(await handle.db.$count(pointResults, eq(pointResults.scanId, kept.scan.id))).toBe(2);
+  });
+});
