@@ -17,7 +17,7 @@ export interface Embedded {
 export async function openEmbedded(options: { dataDir?: string; databaseUrl?: string; workers: number; batchSize: number; logger: Logger }): Promise<Embedded> {
   const handle = await openDatabase(options.databaseUrl ? { databaseUrl: options.databaseUrl } : { dataDir: options.dataDir ?? 'memory://' });
   const events = new ScanEvents();
-  const dispatcher = createLocalDispatcher({ db: handle.db, events, logger: options.logger, workers: options.workers });
+  const dispatcher = await createLocalDispatcher({ db: handle.db, events, logger: options.logger, workers: options.workers });
   const scans = createScansService({ db: handle.db, events, batchSize: options.batchSize, onSubmitted: () => dispatcher.notify(), onCancelled: (id) => dispatcher.cancel(id) });
   await dispatcher.start();
   return {

@@ -10,6 +10,7 @@ import { claimBatches, failBatch, findScan, releaseAllBatches, releaseBatch, set
 import { toScanView } from '../scans/scanView.ts';
 import type { BatchOutput, BatchTask } from './computeBatch.ts';
 import type { Dispatcher } from './dispatcher.ts';
+import { buildWorkerBundle } from './workerBundle.ts';
 
 export interface LocalDispatcherOptions {
   db: Database;
@@ -27,8 +28,9 @@ const MAX_ATTEMPTS = 3;
  * there are threads, so a thread never waits on a write), computes them in the pool and writes
  * each batch's results in one transaction.
  */
-export function createLocalDispatcher({ db, events, logger, workers }: LocalDispatcherOptions): Dispatcher {
-  const pool = new Piscina({ filename: new URL('./batch.worker.mjs', import.meta.url).href, minThreads: workers, maxThreads: workers });
+export async function createLocalDispatcher({ db, events, logger, workers }: LocalDispatcherOptions): Promise<Dispatcher> {
+  const bundle = await buildWorkerBundle();
+  const pool = new Piscina({ filename: bundle.url, minThreads: workers, maxThreads: workers });
   const workerId = `${hostname()}:${process.pid}`;
   const plans = new Map<number, { plan: ScanPlan; planHash: string }>();
   const inFlight = new Set<Promise<void>>();
@@ -129,6 +131,7 @@ export function createLocalDispatcher({ db, events, logger, workers }: LocalDisp
       clearInterval(timer);
       await Promise.allSettled([...inFlight]);
       await pool.destroy();
+      await bundle.remove();
     },
   };
 }

@@ -5,6 +5,7 @@ import { PGlite } from '@electric-sql/pglite';
 import { drizzle as drizzlePglite } from 'drizzle-orm/pglite';
 import { migrate as migratePglite } from 'drizzle-orm/pglite/migrator';
 import type { PgDatabase, PgQueryResultHKT } from 'drizzle-orm/pg-core';
+import { initClusterInChild, PGLITE_CONF } from './initCluster.ts';
 import * as schema from './schema/index.ts';
 
 export type Schema = typeof schema;
@@ -45,8 +46,9 @@ async function openPglite(dataDir: string | undefined): Promise<DatabaseHandle> 
   if (!inMemory) {
     location = resolve(dataDir);
     await mkdir(location, { recursive: true });
+    await initClusterInChild(location);
   }
-  const pglite = new PGlite(location);
+  const pglite = new PGlite(location, { postgresqlconf: PGLITE_CONF });
   await pglite.waitReady;
   const db = drizzlePglite({ client: pglite, schema, casing: 'snake_case' });
   try {

@@ -8,6 +8,7 @@ import { planBoundSet, type ScanPlan } from '../../shared/plan/scanPlan.ts';
 import type { Database } from '../db/client.ts';
 import type { Scan } from '../db/schema/scans.ts';
 import { findScan } from '../scans/scansRepository.ts';
+import { CountCache } from './countCache.ts';
 import { decodeCursor, encodeCursor } from './cursor.ts';
 import { CONTENT_TYPES, downloadChunks } from './resultsFormat.ts';
 import {
@@ -59,7 +60,7 @@ export function toGrid(cells: HeatmapCell[]): Heatmap {
 
 export type ResultsService = ReturnType<typeof createResultsService>;
 
-export function createResultsService(db: Database) {
+export function createResultsService(db: Database, counts = new CountCache()) {
   /**
    * Loads the scan and checks every parameter a query names against its plan, so a typo is a 400
    * naming the query key rather than an empty result.
@@ -90,12 +91,12 @@ export function createResultsService(db: Database) {
 
   return {
     async page(id: number, q: ResultsQuery): Promise<ResultsPage> {
-      await open(id, q.filters, [{ ref: q.sort, field: 'sort' }]);
+      const { scan } = await open(id, q.filters, [{ ref: q.sort, field: 'sort' }]);
       const selection = selectionOf(id, q);
       const after = q.cursor === undefined ? undefined : decodeCursor(q.cursor, q.sort, q.order);
       // One row more than asked tells whether there is a next page without a second query.
       const rows = await selectPage(db, { ...selection, sort: q.sort, order: q.order, limit: q.limit + 1, offset: q.offset, after });
-      const total = await countRows(db, selection);
+      const total = await counts.get(scan, selection, () => countRows(db, selection));
       const page = rows.slice(0, q.limit);
       const last = page[page.length - 1];
       const nextCursor = rows.length > q.limit && last ? encodeCursor(q.sort, q.order, last.key) : null;
