@@ -4,6 +4,7 @@ import { preparePoint, preparePotential, type PreparedPotential } from '../../sh
 import { createPointSource, type PointSource } from '../../shared/plan/expandPlan.ts';
 import { planBoundSet, type ScanPlan } from '../../shared/plan/scanPlan.ts';
 import type { NewPointResultRow } from '../db/schema/pointResults.ts';
+import { pointKey } from './pointKey.ts';
 
 export interface BatchTask {
   scanId: number;
@@ -12,6 +13,8 @@ export interface BatchTask {
   plan: ScanPlan;
   firstIndex: number;
   pointCount: number;
+  /** Only these point indices (a derived scan copies the others); default: the whole range. */
+  indices?: number[];
 }
 
 export interface BatchOutput {
@@ -45,7 +48,8 @@ export function computeBatch(task: BatchTask): BatchOutput {
   const { source, prepared, score } = compile(task);
   const rows: NewPointResultRow[] = [];
   const started = performance.now();
-  for (let index = task.firstIndex; index < task.firstIndex + task.pointCount; index++) {
+  const indices = task.indices ?? Array.from({ length: task.pointCount }, (_, i) => task.firstIndex + i);
+  for (const index of indices) {
     const request = source.requestAt(index);
     const t0 = performance.now();
     const result = computePoint(preparePoint(request, prepared));
@@ -69,6 +73,7 @@ export function computeBatch(task: BatchTask): BatchOutput {
       region: scored.region,
       computeMs,
       evaluations: result.evaluations,
+      pointKey: pointKey(request),
     });
   }
   return { rows, computeSeconds: (performance.now() - started) / 1000 };

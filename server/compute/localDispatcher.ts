@@ -1,6 +1,7 @@
 import { hostname } from 'node:os';
 import { Piscina } from 'piscina';
 import type { Logger } from 'pino';
+import { createPointSource, type PointSource } from '../../shared/plan/expandPlan.ts';
 import type { ScanPlan } from '../../shared/plan/scanPlan.ts';
 import type { Database } from '../db/client.ts';
 import type { Batch } from '../db/schema/batches.ts';
@@ -10,6 +11,7 @@ import { claimBatches, failBatch, findScan, releaseAllBatches, releaseBatch, set
 import { toScanView } from '../scans/scanView.ts';
 import type { BatchOutput, BatchTask } from './computeBatch.ts';
 import type { Dispatcher } from './dispatcher.ts';
+import { reuseResults } from './reuseResults.ts';
 import { buildWorkerBundle } from './workerBundle.ts';
 
 export interface LocalDispatcherOptions {
@@ -17,6 +19,14 @@ export interface LocalDispatcherOptions {
   events: ScanEvents;
   logger: Logger;
   workers: number;
+}
+
+interface ScanWork {
+  plan: ScanPlan;
+  planHash: string;
+  basedOnScanId: number | null;
+  /** Only for derived scans, whose batches are matched point by point against the source. */
+  points: PointSource | undefined;
 }
 
 const POLL_MS = 500;
@@ -32,7 +42,7 @@ export async function createLocalDispatcher({ db, events, logger, workers }: Loc
   const bundle = await buildWorkerBundle();
   const pool = new Piscina({ filename: bundle.url, minThreads: workers, maxThreads: workers });
   const workerId = `${hostname()}:${process.pid}`;
-  const plans = new Map<number, { plan: ScanPlan; planHash: string }>();
+  const plans = new Map<number, ScanWork>();
   const inFlight = new Set<Promise<void>>();
   const aborters = new Map<number, Set<AbortController>>();
   let running = false;
@@ -44,7 +54,8 @@ export async function createLocalDispatcher({ db, events, logger, workers }: Loc
     if (cached) return cached;
     const scan = await findScan(db, scanId);
     if (!scan) return undefined;
-    const entry = { plan: scan.plan as unknown as ScanPlan, planHash: scan.planHash };
+    const plan = scan.plan as unknown as ScanPlan;
+    const entry: ScanWork = { plan, planHash: scan.planHash, basedOnScanId: scan.basedOnScanId, points: scan.basedOnScanId === null ? undefined : createPointSource(plan) };
     plans.set(scanId, entry);
     return entry;
   };
@@ -67,13 +78,22 @@ export async function createLocalDispatcher({ db, events, logger, workers }: Loc
   const run = async (batch: Batch): Promise<void> => {
     const source = await planOf(batch.scanId);
     if (!source) return; // deleted while queued
-    const task: BatchTask = { scanId: batch.scanId, ...source, firstIndex: batch.firstIndex, pointCount: batch.pointCount };
+    // A derived scan copies what its source already computed and computes only the rest.
+    const reuse = source.points && source.basedOnScanId !== null
+      ? await reuseResults(db, source.points, batch, source.basedOnScanId)
+      : { copied: [], remaining: undefined };
+    const task: BatchTask = {
+      scanId: batch.scanId, plan: source.plan, planHash: source.planHash, firstIndex: batch.firstIndex, pointCount: batch.pointCount,
+      ...(reuse.remaining ? { indices: reuse.remaining } : {}),
+    };
     const aborter = new AbortController();
     const mine = aborters.get(batch.scanId) ?? new Set<AbortController>();
     aborters.set(batch.scanId, mine.add(aborter));
     let output: BatchOutput;
     try {
-      output = (await pool.run(task, { signal: aborter.signal })) as BatchOutput;
+      output = task.indices?.length === 0
+        ? { rows: [], computeSeconds: 0 }
+        : ((await pool.run(task, { signal: aborter.signal })) as BatchOutput);
     } catch (error) {
       if (aborter.signal.aborted) await releaseBatch(db, batch.id);
       else await fail(batch, error);
@@ -82,7 +102,7 @@ export async function createLocalDispatcher({ db, events, logger, workers }: Loc
       mine.delete(aborter);
     }
     try {
-      await finish(batch, output);
+      await finish(batch, { ...output, rows: [...reuse.copied, ...output.rows] });
     } catch (error) {
       // A scan deleted mid-batch takes its batches with it; the insert then has nothing to refer to.
       if (await findScan(db, batch.scanId)) throw error;

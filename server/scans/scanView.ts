@@ -21,6 +21,7 @@ export function toScanView(scan: Scan, now = Date.now()): ScanView {
     etaSeconds: active && rate ? remaining / rate : null,
     planHash: scan.planHash,
     physicsVersion: scan.physicsVersion,
+    basedOnScanId: scan.basedOnScanId,
     computeSeconds: scan.computeSeconds,
     error: scan.error,
     createdAt: scan.createdAt.toISOString(),

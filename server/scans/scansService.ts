@@ -1,6 +1,6 @@
 import { stringify } from 'yaml';
 import type { ScanDetail, ScanView, SubmitScan } from '../../shared/api/scans.ts';
-import { ConflictError, NotFoundError } from '../../shared/errors.ts';
+import { ConflictError, InvalidInputError, NotFoundError } from '../../shared/errors.ts';
 import { planPointCount } from '../../shared/plan/expandPlan.ts';
 import { planHash } from '../../shared/plan/planHash.ts';
 import { parsePlanText, validatePlan } from '../../shared/plan/validatePlan.ts';
@@ -33,6 +33,9 @@ export function createScansService({ db, events, batchSize, onSubmitted, onCance
   const submit = async (input: SubmitScan): Promise<ScanDetail> => {
     const plan = 'planText' in input ? parsePlanText(input.planText, input.format) : validatePlan(input.plan);
     const planText = 'planText' in input ? input.planText : stringify(input.plan);
+    if (input.basedOn !== undefined && !(await findScan(db, input.basedOn))) {
+      throw new InvalidInputError(`basedOn: scan ${input.basedOn} does not exist`, 'basedOn');
+    }
     const scan = await insertScan(db, {
       title: plan.title,
       notes: plan.notes ?? '',
@@ -41,6 +44,7 @@ export function createScansService({ db, events, batchSize, onSubmitted, onCance
       planHash: await planHash(plan),
       physicsVersion: PHYSICS_VERSION,
       pointCount: planPointCount(plan),
+      basedOnScanId: input.basedOn ?? null,
     }, batchSize);
     onSubmitted();
     return toScanDetail(scan);

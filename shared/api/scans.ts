@@ -17,6 +17,7 @@ export const scanViewSchema = z.object({
   etaSeconds: z.number().nullable(),
   planHash: z.string(),
   physicsVersion: z.string(),
+  basedOnScanId: z.number().int().nullable(),
   computeSeconds: z.number(),
   error: z.string().nullable(),
   createdAt: z.string(),
@@ -32,9 +33,11 @@ export const scanDetailSchema = scanViewSchema.extend({
 export type ScanDetail = z.infer<typeof scanDetailSchema>;
 
 /** POST /api/v1/scans: the plan as text (YAML or JSON) or as a JSON object. */
+/** `basedOn`: an earlier scan whose points with identical requests are copied, not recomputed. */
+const basedOn = z.number().int().positive().optional();
 export const submitScanSchema = z.union([
-  z.strictObject({ planText: z.string().min(1).max(6_000_000), format: z.enum(['yaml', 'json']).optional() }),
-  z.strictObject({ plan: z.record(z.string(), z.unknown()) }),
+  z.strictObject({ planText: z.string().min(1).max(6_000_000), format: z.enum(['yaml', 'json']).optional(), basedOn }),
+  z.strictObject({ plan: z.record(z.string(), z.unknown()), basedOn }),
 ]);
 export type SubmitScan = z.infer<typeof submitScanSchema>;
 

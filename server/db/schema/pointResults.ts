@@ -52,6 +52,9 @@ export const pointResults = pgTable(
     computeMs: doublePrecision().notNull(),
     // Right-hand-side evaluations: a machine-independent cost, comparable across workers.
     evaluations: integer(),
+    // Hash of the point's full request (potential, parameters, pivot, precision): a scan derived
+    // from another copies the rows whose key it already has instead of computing them again.
+    pointKey: text(),
   },
   (t) => [
     // Makes result writes idempotent: a retried batch conflicts instead of duplicating.
@@ -60,6 +63,7 @@ export const pointResults = pgTable(
     index('point_results_scan_id_r_idx').on(t.scanId, t.r),
     index('point_results_scan_id_chi2_idx').on(t.scanId, t.chi2),
     index('point_results_scan_id_status_idx').on(t.scanId, t.status),
+    index('point_results_scan_id_point_key_idx').on(t.scanId, t.pointKey),
   ],
 );
 

@@ -34,6 +34,8 @@ export const scans = pgTable(
     error: text(),
     // No foreign keys yet: users and groups arrive with the accounts issue, which adds them.
     ownerId: integer(),
+    // Re-run or extension of another scan: points with the same request are copied from it.
+    basedOnScanId: integer(),
     groupId: integer(),
     startedAt: instant(),
     finishedAt: instant(),
