@@ -25,7 +25,7 @@ export function resultRow(scanId: number, pointIndex: number, overrides: Partial
     eps1: v(7), eps2: v(8), eps3: v(9), ns: 0.96 + v(10), r: v(11), nt: -v(12), alphaS: -v(13),
     As: 2.1e-9 * v(1), amplitude: 1e-10 * v(2), energyScaleGeV: 1.6e16 * v(3), hubbleGeV: 3e13 * v(4),
     exactNs: 0.96 + v(14), exactR: v(15), exactNt: -v(16), exactAlphaS: -v(17), exactAs: 2.1e-9 * v(5), exactAmplitude: 1e-10 * v(6),
-    chi2: v(18), region: 'inside95', computeMs: v(19), evaluations: 3700 + pointIndex,
+    chi2: v(18), region: 'inside95', computeMs: v(19), evaluations: 3700 + pointIndex, pointKey: `key-${pointIndex}`,
     ...overrides,
   };
 }
