@@ -12,7 +12,6 @@ const schema = z.object({
   DATABASE_URL: z.string().url().optional(),
   ROLLWAY_WORKERS: z.coerce.number().int().min(1).max(256).default(availableParallelism()),
   ROLLWAY_BATCH_SIZE: z.coerce.number().int().min(1).max(10_000).default(500),
-  ROLLWAY_DEMO: z.enum(['0', '1']).default('0'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
 });
 
@@ -23,7 +22,6 @@ export interface Config {
   databaseUrl?: string;
   workers: number;
   batchSize: number;
-  demo: boolean;
   logLevel: string;
 }
 
@@ -41,7 +39,6 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     ...(e.DATABASE_URL === undefined ? {} : { databaseUrl: e.DATABASE_URL }),
     workers: e.ROLLWAY_WORKERS,
     batchSize: e.ROLLWAY_BATCH_SIZE,
-    demo: e.ROLLWAY_DEMO === '1',
     logLevel: e.LOG_LEVEL,
   };
 }
