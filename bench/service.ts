@@ -57,11 +57,15 @@ export async function measureService(points: number, workers: number): Promise<S
     }
     if (view.state !== 'completed') throw new Error(`benchmark scan ended ${view.state}`);
     const seconds = (Date.parse(view.finishedAt!) - Date.parse(view.startedAt)) / 1000;
+    // 20 consecutive pages as a grid scrolls them: sorted by r, filtered on n_s, keyset cursor.
     const times: number[] = [];
+    let cursor: string | null = null;
     for (let i = 0; i < 20; i++) {
       const t0 = performance.now();
-      await json(`${base}/api/v1/scans/${scan.id}/results?limit=1000&sort=r&order=desc&ns.gte=0.96&offset=${i * 1000}`);
+      const query = `limit=1000&sort=r&order=desc&ns.gte=0.96${cursor ? `&cursor=${encodeURIComponent(cursor)}` : ''}`;
+      const page: { nextCursor: string | null } = await json(`${base}/api/v1/scans/${scan.id}/results?${query}`);
       times.push(performance.now() - t0);
+      cursor = page.nextCursor;
     }
     times.sort((a, b) => a - b);
     return {

@@ -1,4 +1,3 @@
-import { z } from 'zod';
 import {
   POINT_STATUSES, refText,
   type ColumnRef, type DownloadQuery, type Filter, type Heatmap, type HeatmapQuery, type Provenance, type ResultRow, type ResultsPage, type ResultsQuery, type ResultsSummary,
@@ -6,32 +5,19 @@ import {
 import { InvalidInputError, NotFoundError } from '../../shared/errors.ts';
 import { planBoundSet, type ScanPlan } from '../../shared/plan/scanPlan.ts';
 import type { Database } from '../db/client.ts';
-import type { Scan } from '../db/schema/scans.ts';
 import { findScan } from '../scans/scansRepository.ts';
 import { CountCache } from './countCache.ts';
 import { decodeCursor, encodeCursor } from './cursor.ts';
+import { heatmapCells, heatmapSize, REGION_RANK, type HeatmapCell } from './heatmapRepository.ts';
+import { planParameters } from './planParameters.ts';
 import { CONTENT_TYPES, downloadChunks } from './resultsFormat.ts';
-import {
-  countBy, countRows, heatmapCells, heatmapSize, lowestChi2, observableStats, REGION_RANK, selectPage,
-  type HeatmapCell, type PageRow, type PageSpec, type RowSelection,
-} from './resultsRepository.ts';
+import { countBy, countRows, lowestChi2, observableStats, selectPage, type PageSpec, type RowSelection } from './resultsRepository.ts';
 
 /** Rows per query while downloading: large enough to amortise a query, small enough to stream. */
 export const DOWNLOAD_PAGE = 5000;
-/** A bigger grid would be tens of MB of JSON and more cells than a screen has pixels. */
+/** A bigger grid is tens of MB of JSON and more cells than a screen has pixels. */
 export const MAX_HEATMAP_CELLS = 250_000;
 const BEST_COUNT = 10;
-
-// Only the plan's parameter names are needed; read loosely so an older stored plan still opens.
-const storedPlanSchema = z.object({ axes: z.array(z.object({ name: z.string() })).catch([]), fixed: z.record(z.string(), z.unknown()).catch({}) });
-
-/** Names in a point's params: every axis (pivotEfolds included) and every fixed parameter. */
-export function planParameters(plan: Scan['plan']): string[] {
-  const parsed = storedPlanSchema.safeParse(plan);
-  if (!parsed.success) return [];
-  return [...new Set([...parsed.data.axes.map((a) => a.name), ...Object.keys(parsed.data.fixed)])];
-}
-
 
 /** The query a download answers, in query-string form, for its provenance block. */
 function describe(q: DownloadQuery): string {
@@ -43,17 +29,15 @@ function describe(q: DownloadQuery): string {
 
 /** values[iy][ix] over the sorted distinct x and y; empty cells stay null. */
 export function toGrid(cells: HeatmapCell[]): Heatmap {
-  const x = [...new Set(cells.map((c) => c.x))].sort((a, b) => a - b);
-  const y = [...new Set(cells.map((c) => c.y))].sort((a, b) => a - b);
+  const x = [...new Set(cells.map((c) => c[0]))].sort((a, b) => a - b);
+  const y = [...new Set(cells.map((c) => c[1]))].sort((a, b) => a - b);
   const ix = new Map(x.map((v, i) => [v, i]));
   const iy = new Map(y.map((v, i) => [v, i]));
   const values = y.map(() => new Array<number | null>(x.length).fill(null));
-  const region = y.map(() => new Array<(typeof REGION_RANK)[number] | null>(x.length).fill(null));
-  for (const c of cells) {
-    const row = iy.get(c.y)!;
-    const col = ix.get(c.x)!;
-    values[row]![col] = c.value;
-    region[row]![col] = c.rank === null ? null : REGION_RANK[c.rank] ?? null;
+  const region = y.map(() => new Array<Heatmap['region'][number][number]>(x.length).fill(null));
+  for (const [cx, cy, value, rank] of cells) {
+    values[iy.get(cy)!]![ix.get(cx)!] = value;
+    region[iy.get(cy)!]![ix.get(cx)!] = rank === null ? null : REGION_RANK[rank] ?? null;
   }
   return { x, y, values, region };
 }
@@ -70,8 +54,8 @@ export function createResultsService(db: Database, counts = new CountCache()) {
     if (!scan) throw new NotFoundError(`scan ${id} does not exist`);
     const params = planParameters(scan.plan);
     for (const { ref, field } of [...filters, ...refs]) {
-      if (ref.kind === 'param' && !params.includes(ref.name)) {
-        throw new InvalidInputError(`${field}: scan ${id} has no parameter "${ref.name}"; its parameters are ${params.join(', ') || 'none'}`, field);
+      if (ref.kind === 'param' && !params.has(ref.name)) {
+        throw new InvalidInputError(`${field}: scan ${id} has no parameter "${ref.name}"; its parameters are ${[...params.keys()].join(', ') || 'none'}`, field);
       }
     }
     return { scan, params };
@@ -113,12 +97,9 @@ export function createResultsService(db: Database, counts = new CountCache()) {
         if (key !== null && key in byStatus) byStatus[key as keyof typeof byStatus] = n;
       }
       for (const { key, n } of await countBy(db, id, 'region')) {
-        const bucket = key !== null && key in byRegion ? (key as keyof typeof byRegion) : 'unscored';
-        byRegion[bucket] += n;
+        byRegion[key !== null && key in byRegion ? (key as keyof typeof byRegion) : 'unscored'] += n;
       }
-      const observables = await observableStats(db, id);
-      const best = await lowestChi2(db, id, BEST_COUNT);
-      return { scanId: id, total, byStatus, byRegion, observables, best };
+      return { scanId: id, total, byStatus, byRegion, observables: await observableStats(db, id), best: await lowestChi2(db, id, BEST_COUNT) };
     },
 
     async download(id: number, q: DownloadQuery) {
@@ -130,19 +111,20 @@ export function createResultsService(db: Database, counts = new CountCache()) {
         query: describe(q), generatedAt: new Date().toISOString(),
       };
       const rows = pages({ ...selectionOf(id, q), sort: q.sort, order: q.order });
-      return { filename: `scan-${id}.${q.format}`, contentType: CONTENT_TYPES[q.format], chunks: downloadChunks(q.format, provenance, params, rows) };
+      return { filename: `scan-${id}.${q.format}`, contentType: CONTENT_TYPES[q.format], chunks: downloadChunks(q.format, provenance, [...params.keys()], rows) };
     },
 
     async heatmap(id: number, q: HeatmapQuery): Promise<Heatmap> {
-      const axes = [{ ref: { kind: 'param', name: q.x } as const, field: 'x' }, { ref: { kind: 'param', name: q.y } as const, field: 'y' }];
-      await open(id, q.filters, axes);
+      const { params } = await open(id, q.filters, [{ ref: { kind: 'param', name: q.x }, field: 'x' }, { ref: { kind: 'param', name: q.y }, field: 'y' }]);
       const spec = { ...selectionOf(id, q), x: q.x, y: q.y, value: q.value, agg: q.agg };
-      const { nx, ny } = await heatmapSize(db, spec);
-      if (nx * ny > MAX_HEATMAP_CELLS) {
-        throw new InvalidInputError(`x: ${q.x} × ${q.y} is a ${nx} × ${ny} grid, over ${MAX_HEATMAP_CELLS} cells; narrow it with filters such as param.${q.x}.lte=<number>`, 'x');
+      // The plan bounds the grid without a query; only a grid that may be too large is counted.
+      if (params.get(q.x)! * params.get(q.y)! > MAX_HEATMAP_CELLS) {
+        const { nx, ny } = await heatmapSize(db, spec);
+        if (nx * ny > MAX_HEATMAP_CELLS) {
+          throw new InvalidInputError(`x: ${q.x} × ${q.y} is a ${nx} × ${ny} grid, over ${MAX_HEATMAP_CELLS} cells; narrow it with filters such as param.${q.x}.lte=<number>`, 'x');
+        }
       }
       return toGrid(await heatmapCells(db, spec));
     },
   };
 }
-

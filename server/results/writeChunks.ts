@@ -3,6 +3,7 @@ import type { Response } from 'express';
 /** Resolves on 'drain', or on 'close' when the client has gone (a drain would never come). */
 const drained = (res: Response): Promise<void> =>
   new Promise((resolve) => {
+    if (res.destroyed) return resolve();
     const done = () => {
       res.off('drain', done);
       res.off('close', done);
@@ -14,18 +15,23 @@ const drained = (res: Response): Promise<void> =>
 
 /**
  * Writes chunks as they are produced, waiting for the socket whenever its buffer is full, so a
- * download of any size holds about one page in memory. A client that disconnects stops the
- * producer (leaving the loop closes the generator, so no further page is queried). A failure
- * after the headers are out cannot become a JSON error any more: the response is destroyed, so
- * the client sees a broken transfer rather than a file that looks complete.
+ * download of any size holds about one chunk in memory. The next chunk is asked for only while
+ * the client is still there: a client that disconnects stops the producer before its next page
+ * query. A failure after the headers are out cannot become a JSON error any more: the response
+ * is destroyed, so the client sees a broken transfer rather than a file that looks complete.
  */
 export async function writeChunks(res: Response, chunks: AsyncIterable<string>): Promise<void> {
+  const iterator = chunks[Symbol.asyncIterator]();
   try {
-    for await (const chunk of chunks) {
-      if (res.destroyed) return;
-      if (!res.write(chunk)) await drained(res);
+    while (!res.destroyed) {
+      const next = await iterator.next();
+      if (next.done) {
+        res.end();
+        return;
+      }
+      if (!res.write(next.value)) await drained(res);
     }
-    res.end();
+    await iterator.return?.();
   } catch (error) {
     if (!res.headersSent) throw error;
     res.req.log?.error({ err: error }, 'download failed after the response started');

@@ -26,7 +26,8 @@ export type NumberColumn = (typeof NUMBER_COLUMNS)[number];
 /** Integer in the database: a fractional bound would be a type error in SQL, so it is a 400 here. */
 export const INTEGER_COLUMNS: ReadonlySet<NumberColumn> = new Set(['pointIndex', 'evaluations']);
 /** What a heatmap cell can aggregate: anything numeric but the point's own index. */
-export const HEATMAP_VALUES = NUMBER_COLUMNS.filter((c) => c !== 'pointIndex') as Exclude<NumberColumn, 'pointIndex'>[];
+export type HeatmapValue = Exclude<NumberColumn, 'pointIndex'>;
+export const HEATMAP_VALUES = NUMBER_COLUMNS.filter((c) => c !== 'pointIndex') as HeatmapValue[];
 
 // Records rather than arrays, so the compiler fails when the physics core adds a status or region.
 const statusSet: Record<PointStatus, true> = { ok: true, no_inflation: true, too_few_efolds: true, never_ends: true, negative_potential: true, solver_failed: true };
@@ -78,8 +79,9 @@ function parseFilter(key: string, raw: unknown): Filter {
 
 const once = (what: string) => z.string({ error: `must be ${what}, given once` });
 const queryInt = (min: number, max: number) => {
-  const error = `must be a whole number from ${min} to ${max}`;
-  return once(error).regex(/^\d{1,10}$/, { error }).transform(Number).pipe(z.number().int().min(min, { error }).max(max, { error }));
+  const what = `a whole number from ${min} to ${max}`;
+  const error = `must be ${what}`;
+  return once(what).regex(/^\d{1,10}$/, { error }).transform(Number).pipe(z.number().int().min(min, { error }).max(max, { error }));
 };
 const oneOf = <T extends string>(values: readonly [T, ...T[]]) => z.enum(values, { error: `must be one of ${values.join(', ')}` });
 /** A comma list such as `status=ok,never_ends`; every item must be allowed. */
@@ -117,7 +119,7 @@ export const heatmapQuerySchema = z
   .strictObject({ ...rowSelection, x: paramName, y: paramName, value: oneOf(HEATMAP_VALUES as [string, ...string[]]).optional(), agg: oneOf(HEATMAP_AGGREGATES).default('mean') })
   .refine((q) => q.x !== q.y, { path: ['y'], error: 'must differ from x' })
   .refine((q) => q.value !== undefined || q.agg === 'count', { path: ['value'], error: `required unless agg=count; one of ${HEATMAP_VALUES.join(', ')}` })
-  .transform((q) => ({ ...q, value: q.value as (typeof HEATMAP_VALUES)[number] | undefined }));
+  .transform((q) => ({ ...q, value: q.value as HeatmapValue | undefined }));
 
 type WithFilters<S extends z.ZodType> = z.infer<S> & { filters: Filter[] };
 export type ResultsQuery = WithFilters<typeof resultsQuerySchema>;
