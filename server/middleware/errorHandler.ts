@@ -11,6 +11,12 @@ export const notFound: RequestHandler = (req, res) => {
  * errors (bad JSON, too large) are the client's fault; anything else is logged and a 500.
  */
 export const errorHandler: ErrorRequestHandler = (error: unknown, req, res, _next) => {
+  // A stream (download, events) that fails midway cannot change its status any more: cut it.
+  if (res.headersSent) {
+    req.log?.error({ err: error }, 'error after the response started');
+    res.destroy();
+    return;
+  }
   if (error instanceof RollwayError) {
     res.status(error.status).json({ error: error.toJSON() });
     return;

@@ -86,10 +86,16 @@ export async function failBatch(db: Database, batch: Batch, error: string, maxAt
   return outcome;
 }
 
-/** Completes the scan when every point has a result; returns the scan as it is now. */
+/**
+ * Completes the scan when every point has a result; returns the scan as it is now. A completed
+ * scan refreshes the planner's statistics: PGlite has no autovacuum, and without them sorted
+ * result pages sort every matching row (3–5× slower).
+ */
 export async function settleScan(db: Database, id: number): Promise<Scan | undefined> {
-  await db.update(scans).set({ state: 'completed', finishedAt: new Date(), updatedAt: new Date() })
-    .where(and(eq(scans.id, id), eq(scans.state, 'running'), sql`${scans.pointsDone} >= ${scans.pointCount}`));
+  const completed = await db.update(scans).set({ state: 'completed', finishedAt: new Date(), updatedAt: new Date() })
+    .where(and(eq(scans.id, id), eq(scans.state, 'running'), sql`${scans.pointsDone} >= ${scans.pointCount}`))
+    .returning({ id: scans.id });
+  if (completed.length > 0) await db.execute(sql`analyze point_results`);
   return findScan(db, id);
 }
 
