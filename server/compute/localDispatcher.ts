@@ -64,6 +64,7 @@ export async function createLocalDispatcher({ db, events, logger, workers }: Loc
     await insertPointResults(db, batch, output.rows);
     const scan = await settleScan(db, batch.scanId);
     if (scan) events.publish(toScanView(scan));
+    if (!scan || scan.state !== 'running') plans.delete(batch.scanId);
   };
 
   const fail = async (batch: Batch, error: unknown): Promise<void> => {
