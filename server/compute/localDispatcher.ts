@@ -40,7 +40,9 @@ const MAX_ATTEMPTS = 3;
  */
 export async function createLocalDispatcher({ db, events, logger, workers }: LocalDispatcherOptions): Promise<Dispatcher> {
   const bundle = await buildWorkerBundle();
-  const pool = new Piscina({ filename: bundle.url, minThreads: workers, maxThreads: workers });
+  // A small young generation keeps each thread's memory low; the integrator's short-lived arrays
+  // die young either way (measured: same points/s with 8 MB as with V8's default).
+  const pool = new Piscina({ filename: bundle.url, minThreads: workers, maxThreads: workers, resourceLimits: { maxYoungGenerationSizeMb: 8 } });
   const workerId = `${hostname()}:${process.pid}`;
   const plans = new Map<number, ScanWork>();
   const inFlight = new Set<Promise<void>>();
