@@ -2,7 +2,7 @@ import { createScorer } from '../../shared/physics/bounds/score.ts';
 import { computePoint } from '../../shared/physics/point/computePoint.ts';
 import { preparePoint, preparePotential, type PreparedPotential } from '../../shared/physics/point/preparePoint.ts';
 import { createPointSource, type PointSource } from '../../shared/plan/expandPlan.ts';
-import { planBoundSet, type ScanPlan } from '../../shared/plan/scanPlan.ts';
+import { PIVOT_AXIS, planBoundSet, type ScanPlan } from '../../shared/plan/scanPlan.ts';
 import type { NewPointResultRow } from '../db/schema/pointResults.ts';
 import { pointKey } from './pointKey.ts';
 
@@ -48,6 +48,7 @@ export function computeBatch(task: BatchTask): BatchOutput {
   const { source, prepared, score } = compile(task);
   const rows: NewPointResultRow[] = [];
   const started = performance.now();
+  const withPivot = source.axisNames.includes(PIVOT_AXIS);
   const indices = task.indices ?? Array.from({ length: task.pointCount }, (_, i) => task.firstIndex + i);
   for (const index of indices) {
     const request = source.requestAt(index);
@@ -58,7 +59,8 @@ export function computeBatch(task: BatchTask): BatchOutput {
     rows.push({
       scanId: task.scanId,
       pointIndex: index,
-      params: { ...request.params, ...source.valuesAt(index) },
+      // The request holds every parameter; N_* joins them when it is an axis.
+      params: withPivot ? { ...request.params, [PIVOT_AXIS]: (request.pivot as { efolds: number }).efolds } : request.params,
       status: result.status,
       reason: result.reason,
       nTotal: orNull(result.nTotal), nPivot: orNull(result.nPivot), phiStart: orNull(result.phiStart),

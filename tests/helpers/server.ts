@@ -1,4 +1,5 @@
 import { pino } from 'pino';
+import { TERMINAL_STATES } from '../../shared/api/scans.ts';
 import { loadConfig } from '../../server/config.ts';
 import { startServer, type RunningServer } from '../../server/startServer.ts';
 
@@ -19,7 +20,7 @@ export async function api<T = any>(base: string, path: string, init: RequestInit
 }
 
 /** Polls a scan until it reaches a final state or the time runs out (bounded, as every test loop). */
-export async function waitForScan(base: string, id: number, timeoutMs = 60_000, until: (s: any) => boolean = (s) => ['completed', 'cancelled', 'failed'].includes(s.state)): Promise<any> {
+export async function waitForScan(base: string, id: number, timeoutMs = 60_000, until: (s: any) => boolean = (s) => TERMINAL_STATES.has(s.state)): Promise<any> {
   const deadline = Date.now() + timeoutMs;
   for (;;) {
     const { body } = await api(base, `/scans/${id}`);

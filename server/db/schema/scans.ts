@@ -2,7 +2,9 @@ import { sql } from 'drizzle-orm';
 import { check, doublePrecision, index, integer, jsonb, pgTable, text } from 'drizzle-orm/pg-core';
 import { instant, sqlList, timestamps } from './columns.ts';
 
-export const SCAN_STATES = ['queued', 'running', 'completed', 'cancelled', 'failed'] as const;
+import { SCAN_STATES } from '../../../shared/api/scans.ts';
+
+export { SCAN_STATES };
 export type ScanState = (typeof SCAN_STATES)[number];
 
 /**

@@ -61,12 +61,5 @@ export function solve(solver: Solver, f: Rhs, x0: number, y0: number[], x1: numb
 /** y(x1) from y(x0) = y0; exact copy when the two points coincide. */
 export function advance(solver: Solver, f: Rhs, x0: number, y0: number[], x1: number): SolveResult {
   if (x1 === x0) return { x: x0, y: y0.slice(), converged: true, stoppedByObserver: false, evaluations: 0 };
-  // A short hop needs no cautious first step: odex caps it at half the interval anyway.
-  const initial = solver.initialStepSize;
-  solver.initialStepSize = Math.abs(x1 - x0);
-  try {
-    return solve(solver, f, x0, y0, x1);
-  } finally {
-    solver.initialStepSize = initial;
-  }
+  return solve(solver, f, x0, y0, x1);
 }
