@@ -18,6 +18,9 @@ export const scanViewSchema = z.object({
   planHash: z.string(),
   physicsVersion: z.string(),
   basedOnScanId: z.number().int().nullable(),
+  /** Who submitted it (null for scans stored before accounts) and the group it is shared with. */
+  owner: z.object({ id: z.number().int(), name: z.string(), email: z.string() }).nullable(),
+  group: z.object({ id: z.number().int(), name: z.string() }).nullable(),
   computeSeconds: z.number(),
   error: z.string().nullable(),
   createdAt: z.string(),
@@ -34,10 +37,12 @@ export type ScanDetail = z.infer<typeof scanDetailSchema>;
 
 /** POST /api/v1/scans: the plan as text (YAML or JSON) or as a JSON object. */
 /** `basedOn`: an earlier scan whose points with identical requests are copied, not recomputed. */
+/** `groupId`: share the scan with this group (the submitter must belong to it). */
 const basedOn = z.number().int().positive().optional();
+const groupId = z.number().int().positive().optional();
 export const submitScanSchema = z.union([
-  z.strictObject({ planText: z.string().min(1).max(6_000_000), format: z.enum(['yaml', 'json']).optional(), basedOn }),
-  z.strictObject({ plan: z.record(z.string(), z.unknown()), basedOn }),
+  z.strictObject({ planText: z.string().min(1).max(6_000_000), format: z.enum(['yaml', 'json']).optional(), basedOn, groupId }),
+  z.strictObject({ plan: z.record(z.string(), z.unknown()), basedOn, groupId }),
 ]);
 export type SubmitScan = z.infer<typeof submitScanSchema>;
 

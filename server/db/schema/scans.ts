@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm';
 import { check, doublePrecision, index, integer, jsonb, pgTable, text } from 'drizzle-orm/pg-core';
+import { groups, users } from './accounts.ts';
 import { instant, sqlList, timestamps } from './columns.ts';
 
 import { SCAN_STATES } from '../../../shared/api/scans.ts';
@@ -34,11 +35,11 @@ export const scans = pgTable(
     pointsFailed: integer().notNull().default(0),
     computeSeconds: doublePrecision().notNull().default(0),
     error: text(),
-    // No foreign keys yet: users and groups arrive with the accounts issue, which adds them.
-    ownerId: integer(),
+    // Null only for scans stored before accounts existed; kept (unowned, admin-only) if the user goes.
+    ownerId: integer().references(() => users.id, { onDelete: 'set null' }),
     // Re-run or extension of another scan: points with the same request are copied from it.
     basedOnScanId: integer(),
-    groupId: integer(),
+    groupId: integer().references(() => groups.id, { onDelete: 'set null' }),
     startedAt: instant(),
     finishedAt: instant(),
     ...timestamps(),

@@ -27,7 +27,7 @@ describe('openDatabase on PGlite', () => {
     const tables = await memory.pglite!.query<{ table_name: string }>(
       "select table_name from information_schema.tables where table_schema = 'public' order by table_name",
     );
-    expect(tables.rows.map((r) => r.table_name)).toEqual(['batches', 'point_results', 'scans']);
+    expect(tables.rows.map((r) => r.table_name)).toEqual(['api_tokens', 'batches', 'group_members', 'groups', 'link_tokens', 'point_results', 'scan_usage', 'scans', 'sessions', 'users', 'workers']);
     expect(await appliedMigrations(memory)).toBe(journal.entries.length);
   });
 
