@@ -1,11 +1,15 @@
 #!/usr/bin/env bash
 # Installs everything the project needs on a fresh machine: Debian packages the tests use
-# (run as root, as on CI; otherwise through sudo) and the npm dependencies from the lock file.
+# (python3-scipy, postgresql, chromium; run as root, as on CI; otherwise through sudo) and the npm dependencies from the lock file.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 
 need=()
 /usr/bin/python3 -c 'import scipy' 2>/dev/null || need+=(python3-scipy python3-numpy)
+# A real PostgreSQL server for the scale-out tests (started by the tests on loopback).
+ls /usr/lib/postgresql/*/bin/postgres >/dev/null 2>&1 || need+=(postgresql)
+# Real Chromium for the browser tests (driven by playwright-core, never downloaded by it).
+[ -x /usr/bin/chromium ] || need+=(chromium)
 
 if ((${#need[@]})); then
   echo "setup: installing Debian packages: ${need[*]}"
