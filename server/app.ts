@@ -7,6 +7,7 @@ import type { ScanEvents } from './scans/scanEvents.ts';
 import { scansRouter } from './scans/scansRouter.ts';
 import type { ScansService } from './scans/scansService.ts';
 import { healthRouter } from './health/healthRouter.ts';
+import { webRouter } from './web/webRouter.ts';
 
 export interface AppDeps {
   db: Database;
@@ -29,6 +30,7 @@ export function createApp(deps: AppDeps): Express {
   for (const feature of deps.scanFeatures ?? []) api.use('/scans', feature);
   app.use('/api/v1', api);
   app.use('/api', notFound);
+  app.use(webRouter());
   app.use(errorHandler);
   return app;
 }
