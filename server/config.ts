@@ -1,5 +1,6 @@
 import { availableParallelism } from 'node:os';
 import { z } from 'zod';
+import { mailEnvShape, toMailConfig, type MailConfig } from './mail/mailConfig.ts';
 
 /**
  * The only place that reads process.env. Every variable is listed in .env.example; a bad value
@@ -13,6 +14,7 @@ const schema = z.object({
   ROLLWAY_WORKERS: z.coerce.number().int().min(1).max(256).default(availableParallelism()),
   ROLLWAY_BATCH_SIZE: z.coerce.number().int().min(1).max(10_000).default(500),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  ...mailEnvShape,
 });
 
 export interface Config {
@@ -23,6 +25,7 @@ export interface Config {
   workers: number;
   batchSize: number;
   logLevel: string;
+  mail: MailConfig;
 }
 
 export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
@@ -40,5 +43,6 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     workers: e.ROLLWAY_WORKERS,
     batchSize: e.ROLLWAY_BATCH_SIZE,
     logLevel: e.LOG_LEVEL,
+    mail: toMailConfig(e, { host: e.HOST, port: e.PORT, dataDir: e.DATA_DIR }),
   };
 }
