@@ -15,7 +15,8 @@ export interface ReceivedMail {
   envelope: { from: string; to: string[] };
   /** The user the client authenticated as, if it did. */
   user?: string;
-  from: string;
+  /** The From header. */
+  from: { name: string; address: string };
   /** Addresses of the To header. */
   to: string[];
   subject: string;
@@ -88,7 +89,7 @@ export async function startFakeSmtp(options: FakeSmtpOptions = {}): Promise<Fake
         to: session.envelope.rcptTo.map((r) => r.address),
       },
       ...(typeof session.user === 'string' ? { user: session.user } : {}),
-      from: parsed.from?.text ?? '',
+      from: { name: parsed.from?.value[0]?.name ?? '', address: parsed.from?.value[0]?.address ?? '' },
       to: addresses(parsed.to),
       subject: parsed.subject ?? '',
       text: parsed.text ?? '',
