@@ -46,3 +46,8 @@ export function printPointTable(rows: Array<{ label: string; result: PointResult
     : [label.padEnd(14), ...COLUMNS.map(([, get, digits]) => cell(get(result), digits).padStart(13))].join(''));
   process.stdout.write(`${[header, ...lines].join('\n')}\n`);
 }
+
+/** What --json prints: the data as it is, one document on one line. */
+export const printJson = (value: unknown): void => {
+  process.stdout.write(`${toJson(value)}\n`);
+};

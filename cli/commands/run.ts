@@ -3,7 +3,7 @@ import { availableParallelism } from 'node:os';
 import { Command } from 'commander';
 import { TERMINAL_STATES, type ScanView } from '../../shared/api/scans.ts';
 import { InvalidInputError } from '../../shared/errors.ts';
-import { toJson } from '../output.ts';
+import { printJson } from '../output.ts';
 
 interface RunOptions {
   dataDir: string;
@@ -36,7 +36,7 @@ async function runPlan(file: string, options: RunOptions): Promise<void> {
       void core.scans.view(scan.id).then(onView);
     });
     if (!options.json && process.stderr.isTTY) process.stderr.write('\n');
-    if (options.json) process.stdout.write(`${toJson(done)}\n`);
+    if (options.json) printJson(done);
     else process.stdout.write(`scan ${done.id} "${done.title}": ${done.state}, ${done.pointsDone} points (${done.pointsFailed} not ok) in ${done.computeSeconds.toFixed(1)} s of compute; stored in ${options.dataDir}\n`);
     if (done.state !== 'completed') process.exitCode = 1;
   } finally {
