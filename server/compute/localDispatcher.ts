@@ -1,18 +1,13 @@
 import { hostname } from 'node:os';
-import { Piscina } from 'piscina';
 import type { Logger } from 'pino';
-import { createPointSource, type PointSource } from '../../shared/plan/expandPlan.ts';
-import type { ScanPlan } from '../../shared/plan/scanPlan.ts';
 import type { Database } from '../db/client.ts';
 import type { Batch } from '../db/schema/batches.ts';
-import { insertPointResults } from '../db/resultsWriter.ts';
 import type { ScanEvents } from '../scans/scanEvents.ts';
-import { claimBatches, failBatch, findScan, releaseAllBatches, releaseBatch, settleScan, updateScan } from '../scans/scansRepository.ts';
+import { claimBatches, failBatch, releaseAllBatches, releaseBatch, updateScan } from '../scans/scansRepository.ts';
 import { toScanView } from '../scans/scanView.ts';
-import type { BatchOutput, BatchTask } from './computeBatch.ts';
+import { createBatchRunner, MAX_ATTEMPTS, storeBatch } from './batchRunner.ts';
+import type { BatchOutput } from './computeBatch.ts';
 import type { Dispatcher } from './dispatcher.ts';
-import { reuseResults } from './reuseResults.ts';
-import { buildWorkerBundle } from './workerBundle.ts';
 
 export interface LocalDispatcherOptions {
   db: Database;
@@ -21,17 +16,8 @@ export interface LocalDispatcherOptions {
   workers: number;
 }
 
-interface ScanWork {
-  plan: ScanPlan;
-  planHash: string;
-  basedOnScanId: number | null;
-  /** Only for derived scans, whose batches are matched point by point against the source. */
-  points: PointSource | undefined;
-}
-
 const POLL_MS = 500;
 const LEASE_SECONDS = 600;
-const MAX_ATTEMPTS = 3;
 
 /**
  * Keeps every worker thread busy: claims pending batches from the database (twice as many as
@@ -39,34 +25,18 @@ const MAX_ATTEMPTS = 3;
  * each batch's results in one transaction.
  */
 export async function createLocalDispatcher({ db, events, logger, workers }: LocalDispatcherOptions): Promise<Dispatcher> {
-  const bundle = await buildWorkerBundle();
-  // A small young generation keeps each thread's memory low; the integrator's short-lived arrays
-  // die young either way (measured: same points/s with 8 MB as with V8's default).
-  const pool = new Piscina({ filename: bundle.url, minThreads: workers, maxThreads: workers, resourceLimits: { maxYoungGenerationSizeMb: 8 } });
+  const runner = await createBatchRunner(db, workers);
   const workerId = `${hostname()}:${process.pid}`;
-  const plans = new Map<number, ScanWork>();
   const inFlight = new Set<Promise<void>>();
   const aborters = new Map<number, Set<AbortController>>();
   let running = false;
   let pumping = false;
   let timer: NodeJS.Timeout | undefined;
 
-  const planOf = async (scanId: number) => {
-    const cached = plans.get(scanId);
-    if (cached) return cached;
-    const scan = await findScan(db, scanId);
-    if (!scan) return undefined;
-    const plan = scan.plan as unknown as ScanPlan;
-    const entry: ScanWork = { plan, planHash: scan.planHash, basedOnScanId: scan.basedOnScanId, points: scan.basedOnScanId === null ? undefined : createPointSource(plan) };
-    plans.set(scanId, entry);
-    return entry;
-  };
-
   const finish = async (batch: Batch, output: BatchOutput): Promise<void> => {
-    await insertPointResults(db, batch, output.rows);
-    const scan = await settleScan(db, batch.scanId);
-    if (scan) events.publish(toScanView(scan));
-    if (!scan || scan.state !== 'running') plans.delete(batch.scanId);
+    const stored = await storeBatch(db, batch, output);
+    if (stored?.scan) events.publish(toScanView(stored.scan));
+    if (stored?.scan?.state !== 'running') runner.forget(batch.scanId);
   };
 
   const fail = async (batch: Batch, error: unknown): Promise<void> => {
@@ -79,24 +49,12 @@ export async function createLocalDispatcher({ db, events, logger, workers }: Loc
   };
 
   const run = async (batch: Batch): Promise<void> => {
-    const source = await planOf(batch.scanId);
-    if (!source) return; // deleted while queued
-    // A derived scan copies what its source already computed and computes only the rest.
-    const reuse = source.points && source.basedOnScanId !== null
-      ? await reuseResults(db, source.points, batch, source.basedOnScanId)
-      : { copied: [], remaining: undefined };
-    const task: BatchTask = {
-      scanId: batch.scanId, plan: source.plan, planHash: source.planHash, firstIndex: batch.firstIndex, pointCount: batch.pointCount,
-      ...(reuse.remaining ? { indices: reuse.remaining } : {}),
-    };
     const aborter = new AbortController();
     const mine = aborters.get(batch.scanId) ?? new Set<AbortController>();
     aborters.set(batch.scanId, mine.add(aborter));
-    let output: BatchOutput;
+    let output: BatchOutput | undefined;
     try {
-      output = task.indices?.length === 0
-        ? { rows: [], computeSeconds: 0 }
-        : ((await pool.run(task, { signal: aborter.signal })) as BatchOutput);
+      output = await runner.compute(batch, aborter.signal);
     } catch (error) {
       if (aborter.signal.aborted) await releaseBatch(db, batch.id);
       else await fail(batch, error);
@@ -104,12 +62,7 @@ export async function createLocalDispatcher({ db, events, logger, workers }: Loc
     } finally {
       mine.delete(aborter);
     }
-    try {
-      await finish(batch, { ...output, rows: [...reuse.copied, ...output.rows] });
-    } catch (error) {
-      // A scan deleted mid-batch takes its batches with it; the insert then has nothing to refer to.
-      if (await findScan(db, batch.scanId)) throw error;
-    }
+    if (output) await finish(batch, output);
   };
 
   const pump = async (): Promise<void> => {
@@ -153,8 +106,7 @@ export async function createLocalDispatcher({ db, events, logger, workers }: Loc
       running = false;
       clearInterval(timer);
       await Promise.allSettled([...inFlight]);
-      await pool.destroy();
-      await bundle.remove();
+      await runner.close();
     },
   };
 }

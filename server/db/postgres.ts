@@ -13,6 +13,9 @@ const MIGRATION_LOCK_KEY = 4_600_001;
 
 export async function openPostgres(databaseUrl: string): Promise<DatabaseHandle> {
   const pool = new pg.Pool({ connectionString: databaseUrl });
+  // An idle connection the server closes (a restart) is reported here; without a listener the
+  // 'error' event would end the process. The pool drops that client and the next query reconnects.
+  pool.on('error', () => undefined);
   try {
     await migrateUnderLock(pool);
   } catch (error) {
