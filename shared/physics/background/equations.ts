@@ -28,6 +28,22 @@ export function createBackgroundRhs(evaluate: PotentialEvaluator, params: Float6
   };
 }
 
+/**
+ * phi' and its next two N-derivatives at one state, exact: phi'' = -(3 - eps1) u and
+ * phi''' = eps1' u - (3 - eps1) u', with eps1' = phi' phi'' and u' from the equations above.
+ */
+export function fieldDerivatives(evaluate: PotentialEvaluator, params: Float64Array, phi: number, u: number, buf: Float64Array): [number, number, number] {
+  evaluate(phi, params, buf);
+  const v = buf[0]!;
+  const dlnV = buf[1]! / v;
+  const d2lnV = buf[2]! / v - dlnV * dlnV;
+  const dphi = u - dlnV;
+  const friction = 3 - 0.5 * dphi * dphi;
+  const ddphi = -friction * u;
+  const du = -friction * u + d2lnV * dphi;
+  return [dphi, ddphi, dphi * ddphi * u - friction * du];
+}
+
 /** Hubble-flow parameters and H^2 at one background state. */
 export interface FlowState {
   V: number;

@@ -25,6 +25,8 @@ interface SlowRoll {
   efoldDensity(phi: number): number;
   epsV(phi: number): number;
   slope(phi: number): number;
+  /** One evaluation: has the walk left the slow-roll region (eps_V >= 1) or passed a maximum? */
+  leaves(phi: number, slopeSign: number): boolean;
 }
 
 function slowRoll(evaluate: PotentialEvaluator, params: Float64Array): SlowRoll {
@@ -35,6 +37,7 @@ function slowRoll(evaluate: PotentialEvaluator, params: Float64Array): SlowRoll 
     efoldDensity: (phi) => (at(phi), positive() ? buf[0]! / Math.abs(buf[1]!) : Number.NaN),
     epsV: (phi) => (at(phi), positive() ? 0.5 * (buf[1]! / buf[0]!) ** 2 : Number.NaN),
     slope: (phi) => (at(phi), buf[1]!),
+    leaves: (phi, slopeSign) => (at(phi), Math.sign(buf[1]!) !== slopeSign || !(positive() && 0.5 * (buf[1]! / buf[0]!) ** 2 < 1)),
   };
 }
 
@@ -51,12 +54,36 @@ function bisect(f: (x: number) => number, a: number, b: number): number {
   let fa = f(a);
   for (let i = 0; i < 60; i++) {
     const m = 0.5 * (a + b);
+    if (m === a || m === b) break;
     const fm = f(m);
     if (fm === 0) return m;
     if ((fm < 0) === (fa < 0)) (a = m), (fa = fm);
     else b = m;
   }
   return 0.5 * (a + b);
+}
+
+/**
+ * x in [a, b] where F(x) = 0 for an increasing F with F' = dF known: Newton steps, each kept
+ * inside the shrinking bracket (bisection when a step would leave it).
+ */
+function solveIncreasing(F: (x: number) => number, dF: (x: number) => number, a: number, b: number, guess: number): number {
+  let lo = Math.min(a, b);
+  let hi = Math.max(a, b);
+  let x = Math.min(Math.max(guess, lo), hi);
+  const rising = b > a;
+  for (let i = 0; i < 60; i++) {
+    const value = F(x);
+    if (value === 0) return x;
+    // F increases from a to b: below the root on a's side.
+    if ((value < 0) === rising) lo = x;
+    else hi = x;
+    const next = x - value / dF(x);
+    const bounded = next > lo && next < hi ? next : 0.5 * (lo + hi);
+    if (Math.abs(bounded - x) <= 4e-16 * Math.abs(x) || hi - lo <= 4e-16 * Math.abs(x)) return bounded;
+    x = bounded;
+  }
+  return x;
 }
 
 /** Walks uphill from `start` in direction `dir` until `target` slow-roll e-folds are collected. */
@@ -75,11 +102,13 @@ function walkUphill(sr: SlowRoll, start: number, dir: number, domain: FieldDomai
     if (collected + gained >= target) {
       const base = phi;
       const need = target - collected;
-      return { phi0: bisect((x) => efoldsBetween(sr, base, x) - need, base, next), collected: target };
+      // d/dx of the collected e-folds is the density V/|V'| (times the direction of the walk).
+      const phi0 = solveIncreasing((x) => efoldsBetween(sr, base, x) - need, (x) => dir * sr.efoldDensity(x), base, next, base + ((next - base) * need) / gained);
+      return { phi0, collected: target };
     }
     collected += gained;
     // Leaving the slow-roll region or passing over a maximum ends the walk.
-    if (Math.sign(sr.slope(next)) !== startSlope || sr.epsV(next) >= 1) return { collected };
+    if (sr.leaves(next, startSlope)) return { collected };
     phi = next;
   }
   return { collected };

@@ -12,9 +12,10 @@ export type Rhs = (x: number, y: number[]) => number[];
 export type StepObserver = (x: number, y: number[]) => boolean;
 
 export interface SolverSettings {
-  rtol: number;
+  rtol: number | number[];
   atol: number | number[];
   maxSteps?: number;
+  maxStepSize?: number;
   columns?: number;
   sequence?: number;
 }
@@ -26,6 +27,7 @@ export function createSolver(dimension: number, settings: SolverSettings): Solve
   solver.maxSteps = settings.maxSteps ?? 100_000;
   solver.initialStepSize = 1e-2;
   solver.denseOutput = false;
+  if (settings.maxStepSize) solver.maxStepSize = settings.maxStepSize;
   if (settings.columns) (solver as any).maxExtrapolationColumns = settings.columns;
   if (settings.sequence) (solver as any).stepSizeSequence = settings.sequence;
   return solver;
