@@ -18,6 +18,8 @@ export default defineConfig({
   test: {
     root: here('.'),
     testTimeout: 60_000,
+    // Hooks start real servers (PGlite initdb, worker bundle, argon2): seconds on a busy machine.
+    hookTimeout: 60_000,
     projects: [
       { extends: true, test: { name: 'node', include: ['tests/**/*.test.ts'], exclude: ['tests/web/**'], environment: 'node' } },
       { extends: true, test: { name: 'web', include: ['tests/web/**/*.test.ts'], environment: 'happy-dom', server: { deps: { inline: ['vuetify'] } } } },

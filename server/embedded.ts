@@ -1,4 +1,5 @@
 import type { Logger } from 'pino';
+import type { QuotaDefaults } from './accounts/quota.ts';
 import { createLocalDispatcher } from './compute/localDispatcher.ts';
 import { DEFAULT_BATCH_TIMEOUT_SECONDS } from './config.ts';
 import { openDatabase, type DatabaseHandle } from './db/client.ts';
@@ -15,7 +16,7 @@ export interface Embedded {
 }
 
 /** The service without HTTP: database, local workers and the scans service, for `rollway run` and the server alike. */
-export async function openEmbedded(options: { dataDir?: string; databaseUrl?: string; workers: number; batchSize: number; batchTimeoutSeconds?: number; logger: Logger }): Promise<Embedded> {
+export async function openEmbedded(options: { dataDir?: string; databaseUrl?: string; workers: number; batchSize: number; batchTimeoutSeconds?: number; logger: Logger; quotaDefaults?: QuotaDefaults }): Promise<Embedded> {
   const handle = await openDatabase(options.databaseUrl ? { databaseUrl: options.databaseUrl } : { dataDir: options.dataDir ?? 'memory://' });
   const events = new ScanEvents();
   // PGlite: piscina threads in this process. PostgreSQL: pg-boss hands batches to `rollway worker`
@@ -26,7 +27,7 @@ export async function openEmbedded(options: { dataDir?: string; databaseUrl?: st
       batchTimeoutSeconds: options.batchTimeoutSeconds ?? DEFAULT_BATCH_TIMEOUT_SECONDS,
     })
     : await createLocalDispatcher({ db: handle.db, events, logger: options.logger, workers: options.workers });
-  const scans = createScansService({ db: handle.db, events, batchSize: options.batchSize, onSubmitted: () => dispatcher.notify(), onCancelled: (id) => dispatcher.cancel(id) });
+  const scans = createScansService({ db: handle.db, events, batchSize: options.batchSize, onSubmitted: () => dispatcher.notify(), onCancelled: (id) => dispatcher.cancel(id), ...(options.quotaDefaults ? { quotaDefaults: options.quotaDefaults } : {}) });
   await dispatcher.start();
   return {
     handle, events, scans, dispatcher,

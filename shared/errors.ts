@@ -44,3 +44,19 @@ export class ConflictError extends RollwayError {
     this.name = 'ConflictError';
   }
 }
+
+/** Not signed in, or the credential sent is bad, expired or revoked. */
+export class UnauthorizedError extends RollwayError {
+  constructor(message = 'sign in first (or send an API token as "Authorization: Bearer rwt_…")') {
+    super('unauthorized', message, 401);
+    this.name = 'UnauthorizedError';
+  }
+}
+
+/** Signed in, but the role or token scope does not allow this. */
+export class ForbiddenError extends RollwayError {
+  constructor(message: string, code = 'forbidden') {
+    super(code, message, 403);
+    this.name = 'ForbiddenError';
+  }
+}

@@ -1,13 +1,22 @@
-import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
 import type { Database } from '../db/client.ts';
+import { groups, users } from '../db/schema/accounts.ts';
 import { batches, type Batch } from '../db/schema/batches.ts';
 import { scans, type NewScan, type Scan, type ScanState } from '../db/schema/scans.ts';
 
 const BATCH_INSERT_CHUNK = 1000;
 
+type Tx = Parameters<Parameters<Database['transaction']>[0]>[0];
+/** Checks and bookkeeping that must happen in the scan's own transaction (quota, usage). */
+export interface InsertHooks {
+  before?: (tx: Tx) => Promise<void>;
+  after?: (tx: Tx, scan: Scan) => Promise<void>;
+}
+
 /** Stores a scan and cuts its points into batches, in one transaction: all or nothing. */
-export async function insertScan(db: Database, scan: NewScan, batchSize: number): Promise<Scan> {
+export async function insertScan(db: Database, scan: NewScan, batchSize: number, hooks: InsertHooks = {}): Promise<Scan> {
   return db.transaction(async (tx) => {
+    await hooks.before?.(tx);
     const [row] = await tx.insert(scans).values(scan).returning();
     const stored = row!;
     const rows = [];
@@ -17,12 +26,24 @@ export async function insertScan(db: Database, scan: NewScan, batchSize: number)
     for (let i = 0; i < rows.length; i += BATCH_INSERT_CHUNK) {
       await tx.insert(batches).values(rows.slice(i, i + BATCH_INSERT_CHUNK));
     }
+    await hooks.after?.(tx, stored);
     return stored;
   });
 }
 
 export async function listScans(db: Database): Promise<Scan[]> {
   return db.select().from(scans).orderBy(desc(scans.id));
+}
+
+const owner = sql<{ id: number; name: string; email: string } | null>`case when ${users.id} is null then null else json_build_object('id', ${users.id}, 'name', ${users.name}, 'email', ${users.email}) end`;
+const group = sql<{ id: number; name: string } | null>`case when ${groups.id} is null then null else json_build_object('id', ${groups.id}, 'name', ${groups.name}) end`;
+
+/** Scans with their owner's and group's names, newest first, filtered by `where` (visibility). */
+export async function listScansWithNames(db: Database, where?: SQL, id?: number) {
+  const rows = await db.select({ scan: scans, owner, group }).from(scans)
+    .leftJoin(users, eq(users.id, scans.ownerId)).leftJoin(groups, eq(groups.id, scans.groupId))
+    .where(id === undefined ? where : and(where, eq(scans.id, id))).orderBy(desc(scans.id));
+  return rows.map((r) => ({ ...r.scan, owner: r.owner, group: r.group }));
 }
 
 export async function findScan(db: Database, id: number): Promise<Scan | undefined> {

@@ -5,6 +5,7 @@ import { parseRequest } from '../../shared/api/parse.ts';
 import { submitScanSchema, TERMINAL_STATES } from '../../shared/api/scans.ts';
 import { InvalidInputError } from '../../shared/errors.ts';
 import { MAX_PLAN_TEXT } from '../../shared/plan/planText.ts';
+import { actorOf } from '../auth/actor.ts';
 import type { ScanEvents } from './scanEvents.ts';
 import type { ScansService } from './scansService.ts';
 
@@ -29,10 +30,10 @@ function submission(req: { file?: Express.Multer.File; body: unknown }) {
 export function scansRouter(service: ScansService, events: ScanEvents): Router {
   const router = Router();
   router.post('/', upload.single('plan'), async (req, res) => {
-    res.status(201).json(await service.submit(submission(req)));
+    res.status(201).json(await service.submit(submission(req), actorOf(req)));
   });
-  router.get('/', async (_req, res) => {
-    res.json({ scans: await service.list() });
+  router.get('/', async (req, res) => {
+    res.json({ scans: await service.list(actorOf(req)) });
   });
   router.get('/:id', async (req, res) => {
     res.json(await service.get(scanId(req.params.id)));
@@ -41,7 +42,7 @@ export function scansRouter(service: ScansService, events: ScanEvents): Router {
     res.json(await service.cancel(scanId(req.params.id)));
   });
   router.post('/:id/clone', async (req, res) => {
-    res.status(201).json(await service.clone(scanId(req.params.id)));
+    res.status(201).json(await service.clone(scanId(req.params.id), actorOf(req)));
   });
   router.delete('/:id', async (req, res) => {
     await service.remove(scanId(req.params.id));

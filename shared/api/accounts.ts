@@ -9,7 +9,7 @@ import { z } from 'zod';
  *                                     also in the body (the CLI stores it and sends it as Bearer)
  *   POST   /auth/logout               ends the current session (cookie or Bearer session JWT) → 204
  *   GET    /auth/me                   → Me (user, groups, quota left, how the request was authenticated)
- *   POST   /auth/link                 {token, password, name?} → LoginResponse: accepts an invitation,
+ *   POST   /auth/link                 {token, password, name?, email?} → LoginResponse: accepts an invitation,
  *                                     completes a password reset or the first admin set-up (single use)
  *   GET    /auth/link/:token          → LinkInfo (what the link is for, the e-mail), 404 when used/expired
  *   POST   /auth/password-reset       {email} → 202 always (never reveals whether the e-mail exists)
@@ -47,7 +47,8 @@ const name = z.string().trim().max(100, { error: 'must be at most 100 characters
 const id = z.number().int().positive();
 
 export const loginRequestSchema = z.strictObject({ email, password: z.string().min(1, { error: 'is required' }).max(200), returnToken: z.boolean().optional() });
-export const linkRequestSchema = z.strictObject({ token: z.string().min(1).max(200), password: passwordSchema, name: name.optional() });
+/** `email`: only for the first set-up link, to replace the placeholder admin address. */
+export const linkRequestSchema = z.strictObject({ token: z.string().min(1).max(200), password: passwordSchema, name: name.optional(), email: email.optional() });
 export const resetRequestSchema = z.strictObject({ email });
 export const invitationRequestSchema = z.strictObject({ email, name: name.optional(), role: z.enum(ROLES).optional(), groupId: id.optional() });
 export const createTokenSchema = z.strictObject({

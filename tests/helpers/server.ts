@@ -2,11 +2,19 @@ import { pino } from 'pino';
 import { TERMINAL_STATES } from '../../shared/api/scans.ts';
 import { loadConfig } from '../../server/config.ts';
 import { startServer, type RunningServer } from '../../server/startServer.ts';
+import { attachCredential, signIn, TEST_ADMIN, TEST_ADMIN_ENV } from './auth.ts';
 
-/** The real server on an ephemeral loopback port, in-memory PGlite unless a data dir is given. */
-export async function startTestServer(env: Record<string, string> = {}): Promise<RunningServer> {
-  const config = loadConfig({ PORT: '0', HOST: '127.0.0.1', DATA_DIR: 'memory://', ROLLWAY_WORKERS: '2', LOG_LEVEL: 'silent', ...env });
-  return startServer(config, pino({ level: 'silent' }));
+/**
+ * The real server on an ephemeral loopback port, in-memory PGlite unless a data dir is given,
+ * mail off unless asked for. Requests from the test to it are signed in as TEST_ADMIN unless
+ * they send their own Authorization header (see attachCredential).
+ */
+export async function startTestServer(env: Record<string, string> = {}, options: { demo?: boolean } = {}): Promise<RunningServer & { adminToken: string }> {
+  const config = loadConfig({ PORT: '0', HOST: '127.0.0.1', DATA_DIR: 'memory://', ROLLWAY_WORKERS: '2', LOG_LEVEL: 'silent', ROLLWAY_MAIL: 'off', ...TEST_ADMIN_ENV, ...env });
+  const server = await startServer(config, pino({ level: 'silent' }), options);
+  const adminToken = await signIn(server.url, TEST_ADMIN.email, TEST_ADMIN.password);
+  attachCredential(server.url, adminToken);
+  return Object.assign(server, { adminToken });
 }
 
 export async function api<T = any>(base: string, path: string, init: RequestInit & { json?: unknown } = {}): Promise<{ status: number; body: T }> {

@@ -3,15 +3,22 @@ import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
+import { attachCredential, signIn, TEST_ADMIN, TEST_ADMIN_ENV } from '../helpers/auth.ts';
 import { api, waitForScan } from '../helpers/server.ts';
 
 const BIN = new URL('../../cli/bin.mjs', import.meta.url).pathname;
 const PLAN = 'title: resume after kill -9\npotential: { family: starobinsky }\naxes:\n  - { name: pivotEfolds, range: { from: 45, to: 65, count: 12000 } }\n';
 
-/** Starts `rollway serve` as a real child process and resolves with its address once it listens. */
-function serve(dataDir: string): Promise<{ child: ChildProcess; base: string }> {
+/** Starts `rollway serve` as a real child process, signed in as the test admin once it listens. */
+async function serve(dataDir: string): Promise<{ child: ChildProcess; base: string }> {
+  const started = await spawnServe(dataDir);
+  attachCredential(started.base, await signIn(started.base, TEST_ADMIN.email, TEST_ADMIN.password));
+  return started;
+}
+
+function spawnServe(dataDir: string): Promise<{ child: ChildProcess; base: string }> {
   const child = spawn(process.execPath, [BIN, 'serve', '--port', '0', '--data-dir', dataDir], {
-    env: { ...process.env, LOG_LEVEL: 'warn', ROLLWAY_WORKERS: '2' },
+    env: { ...process.env, LOG_LEVEL: 'warn', ROLLWAY_WORKERS: '2', ROLLWAY_MAIL: 'off', ...TEST_ADMIN_ENV },
     stdio: ['ignore', 'pipe', 'inherit'],
   });
   return new Promise((resolve, reject) => {

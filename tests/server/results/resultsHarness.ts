@@ -4,7 +4,11 @@ import type { PGlite } from '@electric-sql/pglite';
 import { getTableColumns } from 'drizzle-orm';
 import { toSnakeCase } from 'drizzle-orm/casing';
 import { pino } from 'pino';
+import { openAccounts } from '../../../server/accounts/openAccounts.ts';
 import { createApp } from '../../../server/app.ts';
+import { loadConfig } from '../../../server/config.ts';
+import { createMailer } from '../../../server/mail/mailer.ts';
+import { attachCredential, signIn, TEST_ADMIN, TEST_ADMIN_ENV } from '../../helpers/auth.ts';
 import { openDatabase, type Database } from '../../../server/db/client.ts';
 import { pointResults, type NewPointResultRow } from '../../../server/db/schema/pointResults.ts';
 import { resultsRouter } from '../../../server/results/resultsRouter.ts';
@@ -32,10 +36,16 @@ export async function startResultsApp(): Promise<ResultsApp> {
   const handle = await openDatabase({});
   const events = new ScanEvents();
   const scans = createScansService({ db: handle.db, events, batchSize: 1000, onSubmitted: () => {} });
-  const app = createApp({ db: handle.db, logger: pino({ level: 'silent' }), scans, events, scanFeatures: [resultsRouter(handle.db)] });
+  const logger = pino({ level: 'silent' });
+  const config = loadConfig({ DATA_DIR: 'memory://', ROLLWAY_MAIL: 'off', ...TEST_ADMIN_ENV });
+  const accounts = await openAccounts(handle.db, config, await createMailer(config.mail, logger), logger);
+  const app = createApp({ db: handle.db, logger, scans, events, accounts, scanFeatures: [resultsRouter(handle.db)] });
   const server = app.listen(0, '127.0.0.1');
   await once(server, 'listening');
-  const api = `http://127.0.0.1:${(server.address() as AddressInfo).port}/api/v1`;
+  const origin = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  const api = `${origin}/api/v1`;
+  // The plumbing under test is paging and formats; requests go signed in as the admin.
+  attachCredential(origin, await signIn(origin, TEST_ADMIN.email, TEST_ADMIN.password));
   return {
     db: handle.db,
     pglite: handle.pglite!,
