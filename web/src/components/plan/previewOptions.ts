@@ -13,9 +13,10 @@ export function toTrajectorySamples(t: SampledTrajectory): TrajectorySamples {
 /** V(phi) with the start, the pivot and the end of the sample point's roll marked. */
 export function buildPotentialOption(curve: PotentialCurve, result: PointResult, ink: PlotInk): PlotOption {
   const marks = [
-    { xAxis: result.phiStart, label: { formatter: 'start', color: ink.muted } },
-    { xAxis: result.phiPivot, label: { formatter: 'pivot', color: ink.muted } },
-    { xAxis: result.phiEnd, label: { formatter: 'end', color: ink.muted } },
+    // Start and pivot are often close: one label above the plot, one inside it.
+    { xAxis: result.phiStart, label: { formatter: 'start', color: ink.muted, position: 'insideEndBottom' } },
+    { xAxis: result.phiPivot, label: { formatter: 'pivot', color: ink.muted, position: 'end' } },
+    { xAxis: result.phiEnd, label: { formatter: 'end', color: ink.muted, position: 'end' } },
   ].filter((m) => Number.isFinite(m.xAxis));
   const axis = { axisLabel: { color: ink.muted }, axisLine: { lineStyle: { color: ink.axis } }, splitLine: { lineStyle: { color: ink.split } }, nameTextStyle: { color: ink.text } };
   return {
