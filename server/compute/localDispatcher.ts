@@ -1,10 +1,10 @@
-import { hostname } from 'node:os';
 import type { Logger } from 'pino';
 import type { Database } from '../db/client.ts';
 import type { Batch } from '../db/schema/batches.ts';
 import type { ScanEvents } from '../scans/scanEvents.ts';
 import { claimBatches, failBatch, releaseAllBatches, releaseBatch, updateScan } from '../scans/scansRepository.ts';
 import { toScanView } from '../scans/scanView.ts';
+import { startHeartbeat } from '../workers/heartbeat.ts';
 import { createBatchRunner, MAX_ATTEMPTS, storeBatch } from './batchRunner.ts';
 import type { BatchOutput } from './computeBatch.ts';
 import type { Dispatcher } from './dispatcher.ts';
@@ -26,7 +26,9 @@ const LEASE_SECONDS = 600;
  */
 export async function createLocalDispatcher({ db, events, logger, workers }: LocalDispatcherOptions): Promise<Dispatcher> {
   const runner = await createBatchRunner(db, workers);
-  const workerId = `${hostname()}:${process.pid}`;
+  // The server's own pool is a worker too: admins see it beside any others.
+  const heartbeat = await startHeartbeat(db, { concurrency: workers, logger });
+  const workerId = heartbeat.id;
   const inFlight = new Set<Promise<void>>();
   const aborters = new Map<number, Set<AbortController>>();
   let running = false;
@@ -35,6 +37,7 @@ export async function createLocalDispatcher({ db, events, logger, workers }: Loc
 
   const finish = async (batch: Batch, output: BatchOutput): Promise<void> => {
     const stored = await storeBatch(db, batch, output);
+    heartbeat.add(output.rows.length);
     if (stored?.scan) events.publish(toScanView(stored.scan));
     if (stored?.scan?.state !== 'running') runner.forget(batch.scanId);
   };
@@ -106,6 +109,7 @@ export async function createLocalDispatcher({ db, events, logger, workers }: Loc
       running = false;
       clearInterval(timer);
       await Promise.allSettled([...inFlight]);
+      await heartbeat.stop();
       await runner.close();
     },
   };
