@@ -16,7 +16,27 @@ export class ApiError extends Error {
   }
 }
 
-const API = '/api/v1';
+export const API = '/api/v1';
+
+type UnauthorizedHandler = (path: string) => void;
+let onUnauthorized: UnauthorizedHandler | undefined;
+/**
+ * Called when a request answers 401 (the session ended or expired while the page was open), so the
+ * session store can send the user to sign in. Sign-in and the session check report 401 themselves.
+ */
+export function setUnauthorizedHandler(handler: UnauthorizedHandler | undefined): void {
+  onUnauthorized = handler;
+}
+const QUIET_401 = ['/auth/login', '/auth/me', '/auth/link'];
+
+function parseBody(text: string): unknown {
+  if (!text) return undefined;
+  try {
+    return JSON.parse(text);
+  } catch {
+    return undefined; // e.g. a proxy's HTML error page; the status still tells what happened
+  }
+}
 
 /**
  * One request to the API, parsed with the shared zod schema when given. The session travels in its
@@ -36,11 +56,18 @@ export async function request<T>(method: string, path: string, options: { body?:
     throw new ApiError(0, 'network', 'The server cannot be reached; check your connection and try again.');
   }
   if (res.status === 204 || res.status === 202) return undefined as T;
-  const text = await res.text();
-  const data: unknown = text ? JSON.parse(text) : undefined;
+  const data = parseBody(await res.text());
   if (!res.ok) {
+    if (res.status === 401 && !QUIET_401.some((p) => path.startsWith(p))) onUnauthorized?.(path);
     const error = (data as { error?: { code?: string; message?: string; field?: string; issues?: ApiIssue[] } } | undefined)?.error;
-    throw new ApiError(res.status, error?.code ?? 'http_' + res.status, error?.message ?? res.statusText, error?.field, error?.issues ?? []);
+    const message = error?.message ?? (res.statusText || `The server answered ${res.status}.`);
+    throw new ApiError(res.status, error?.code ?? 'http_' + res.status, message, error?.field, error?.issues ?? []);
   }
-  return options.schema ? options.schema.parse(data) : (data as T);
+  if (!options.schema) return data as T;
+  const parsed = options.schema.safeParse(data);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    throw new ApiError(res.status, 'bad_response', `The server's answer to ${method} ${path} was not understood (${issue?.path.join('.') ?? ''}: ${issue?.message ?? 'invalid'}).`);
+  }
+  return parsed.data;
 }

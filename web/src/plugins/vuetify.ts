@@ -1,12 +1,18 @@
 import 'vuetify/styles';
 import { createVuetify } from 'vuetify';
 import { aliases, mdi } from 'vuetify/iconsets/mdi-svg';
+import { preferredTheme } from '../composables/useThemePreference.ts';
 
 /** Our own palette: deep ink and a warm copper accent, with a calm dark variant. */
 export const vuetify = createVuetify({
   icons: { defaultSet: 'mdi', aliases, sets: { mdi } },
+  defaults: {
+    VTextField: { variant: 'outlined', density: 'comfortable' },
+    VSelect: { variant: 'outlined', density: 'comfortable' },
+    VBtn: { class: 'text-none' },
+  },
   theme: {
-    defaultTheme: 'rollwayLight',
+    defaultTheme: preferredTheme(),
     themes: {
       rollwayLight: {
         dark: false,
