@@ -17,25 +17,32 @@ function inputs(potential: PotentialSpec, exact: boolean, rtol?: number): PointI
   }), prepared));
 }
 
-function rate(potential: PotentialSpec, exact: boolean, seconds: number): number {
+function rate(potential: PotentialSpec, exact: boolean, seconds: number): { pointsPerSecond: number; evaluationsPerPoint: number } {
   const work = inputs(potential, exact);
-  return callsPerCpuSecond((i) => {
+  let evaluations = 0;
+  let points = 0;
+  const pointsPerSecond = callsPerCpuSecond((i) => {
     const result = computePoint(work[i % work.length]!);
     if (result.status !== 'ok') throw new Error(`benchmark point failed: ${result.reason}`);
+    evaluations += result.evaluations;
+    points++;
   }, seconds, exact ? 30 : 200);
+  return { pointsPerSecond, evaluationsPerPoint: evaluations / points };
 }
 
-/** Largest |n_s| difference between the default precision and rtol = 1e-12 over the benchmark's points. */
-function nsErrorAtDefault(exact: boolean): number {
+/** Largest n_s and N_end differences between the default precision and rtol = 1e-12 over the benchmark's points. */
+function errorsAtDefault(exact: boolean): { ns: number; nEnd: number } {
   const coarse = inputs({ family: 'starobinsky' }, exact);
   const fine = inputs({ family: 'starobinsky' }, exact, 1e-12);
-  let worst = 0;
+  let ns = 0;
+  let nEnd = 0;
   for (let i = 0; i < PIVOTS.length; i += 4) {
     const a = computePoint(coarse[i]!);
     const b = computePoint(fine[i]!);
-    worst = Math.max(worst, Math.abs((exact ? a.exact!.ns : a.ns) - (exact ? b.exact!.ns : b.ns)));
+    ns = Math.max(ns, Math.abs((exact ? a.exact!.ns : a.ns) - (exact ? b.exact!.ns : b.ns)));
+    nEnd = Math.max(nEnd, Math.abs(a.nTotal - b.nTotal));
   }
-  return worst;
+  return { ns, nEnd };
 }
 
 function scipyBaseline(seconds: number): number {
@@ -53,6 +60,11 @@ export interface PhysicsFigures {
   customExprRatio: number;
   nsErrorFast: number;
   nsErrorExact: number;
+  /** Largest |ΔN_end| of the fast path, default precision vs rtol 1e-12 (to be located to 1e-8). */
+  nEndErrorFast: number;
+  /** Right-hand-side evaluations per fast point, and CPU nanoseconds per evaluation (all work of a point included). */
+  fastEvaluationsPerPoint: number;
+  fastNsPerEvaluation: number;
 }
 
 export function measurePhysics(seconds: number): PhysicsFigures {
@@ -60,14 +72,18 @@ export function measurePhysics(seconds: number): PhysicsFigures {
   const custom = rate({ expression: STAROBINSKY_EXPRESSION }, false, seconds);
   const exact = rate({ family: 'starobinsky' }, true, seconds);
   const baseline = scipyBaseline(seconds);
+  const fastErrors = errorsAtDefault(false);
   return {
-    fastPointsPerSecond: fast,
-    customExprPointsPerSecond: custom,
-    exactPointsPerSecond: exact,
+    fastPointsPerSecond: fast.pointsPerSecond,
+    customExprPointsPerSecond: custom.pointsPerSecond,
+    exactPointsPerSecond: exact.pointsPerSecond,
     baselinePointsPerSecond: baseline,
-    baselineRatio: fast / baseline,
-    customExprRatio: fast / custom,
-    nsErrorFast: nsErrorAtDefault(false),
-    nsErrorExact: nsErrorAtDefault(true),
+    baselineRatio: fast.pointsPerSecond / baseline,
+    customExprRatio: fast.pointsPerSecond / custom.pointsPerSecond,
+    nsErrorFast: fastErrors.ns,
+    nsErrorExact: errorsAtDefault(true).ns,
+    nEndErrorFast: fastErrors.nEnd,
+    fastEvaluationsPerPoint: fast.evaluationsPerPoint,
+    fastNsPerEvaluation: 1e9 / (fast.pointsPerSecond * fast.evaluationsPerPoint),
   };
 }
