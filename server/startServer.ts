@@ -12,6 +12,7 @@ import { createMailer } from './mail/mailer.ts';
 import { notifyScanOwners } from './scans/notifyOwners.ts';
 import { resultsRouter } from './results/resultsRouter.ts';
 import type { ScansService } from './scans/scansService.ts';
+import { workersRouter } from './workers/workersRouter.ts';
 
 export interface RunningServer {
   url: string;
@@ -44,7 +45,8 @@ export async function startServer(config: Config, logger: Logger, options: { dem
   const accounts = await openAccounts(core.handle.db, settings, mailer, logger);
   const demoSubmitted = demoOwner ? await seedDemo(core.scans, demoOwner) : [];
   const stopNotifying = notifyScanOwners({ db: core.handle.db, events: core.events, mailer, publicUrl, logger });
-  const app = createApp({ db: core.handle.db, logger, scans: core.scans, events: core.events, accounts, scanFeatures: [resultsRouter(core.handle.db)] });
+  const app = createApp({ db: core.handle.db, logger, scans: core.scans, events: core.events, accounts, scanFeatures: [resultsRouter(core.handle.db)],
+    adminFeatures: [{ path: 'workers', router: workersRouter(core.handle.db) }] });
   server.on('request', app);
   return {
     url: `http://${config.host}:${port}`,

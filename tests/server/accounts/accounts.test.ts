@@ -203,6 +203,13 @@ describe('accounts: sign-in, sessions, tokens, groups, quotas, usage, mail', () 
     expect(foreign.status).toBe(400);
   });
 
+  it('shows admins the compute workers with their heartbeats', async () => {
+    const res = await call(server.url, 'GET', '/admin/workers', { token: server.adminToken });
+    expect(res.status).toBe(200);
+    expect(res.body.workers.length).toBeGreaterThanOrEqual(1);
+    expect(res.body.workers[0]).toMatchObject({ status: 'active', concurrency: 2 });
+  });
+
   it('keeps one active admin', async () => {
     const users = (await call(server.url, 'GET', '/admin/users', { token: server.adminToken })).body.users;
     const admin = users.find((u: any) => u.role === 'admin');
