@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { parsePlanText, validatePlan } from '../../../shared/plan/validatePlan.ts';
 import { emptyAxis, emptyForm, formToPlan, INLINE_BOUND_SET, planToForm, readNumber, type PlanForm } from '../../../web/src/components/plan/planForm.ts';
 import { validateForm } from '../../../web/src/composables/usePlanForm.ts';
+import { relocateIssues } from '../../../web/src/components/plan/fieldIssues.ts';
 
 const examples = import.meta.glob<string>('../../../examples/*.yaml', { query: '?raw', import: 'default', eager: true });
 const exampleFiles = Object.keys(examples).map((path) => path.split('/').pop()!);
@@ -116,5 +117,12 @@ describe('form → plan', () => {
     expect(broken.issues.map((i) => i.path)).toEqual(['boundSet']);
     const wrong = validateForm(form({ ...base, boundSetText: 'id: x\nlabel: y\ncitation: ""\nconstraints: []\n' }));
     expect(wrong.issues.map((i) => i.path)).toContain('boundSet.constraints');
+  });
+
+  it('moves "has no value" of a declared parameter to that parameter\'s value input', () => {
+    const f = form({ potentialKind: 'expression', expression: 'V0 * (1 - (phi/mu)^q)', parameters: 'q, mu', fixed: { q: '4' }, axes: [{ ...emptyAxis('V0'), kind: 'values', values: '1' }] });
+    const { issues } = validateForm(f);
+    expect(issues.map((i) => i.path)).toEqual(['potential.parameters[1]']);
+    expect(relocateIssues(issues, ['q', 'mu'])).toEqual([{ path: 'fixed.mu', message: issues[0]!.message }]);
   });
 });

@@ -6,7 +6,7 @@ import { PlanValidationError, type PlanIssue } from '../../../shared/plan/planEr
 import type { PointRequest } from '../../../shared/plan/pointRequest.ts';
 import { scanPlanSchema, type ScanPlan } from '../../../shared/plan/scanPlan.ts';
 import { validatePlan } from '../../../shared/plan/validatePlan.ts';
-import { formFields, messagesAt, unclaimedIssues, type FieldRef } from '../components/plan/fieldIssues.ts';
+import { formFields, messagesAt, relocateIssues, unclaimedIssues, type FieldRef } from '../components/plan/fieldIssues.ts';
 import { declaredParameters, emptyForm, formToPlan, type PlanForm } from '../components/plan/planForm.ts';
 
 /** Validation waits this long after the last keystroke (an expression is compiled to check it). */
@@ -71,17 +71,21 @@ export function usePlanForm(initial: PlanForm = emptyForm()) {
   const validation = shallowRef<Validation>(validateForm(form));
   /** Problems the server reported on the last submit, until the form changes. */
   const serverIssues = ref<PlanIssue[]>([]);
+  /** Messages wait for the first change (or a submit): a fresh form is not yet wrong. */
+  const touched = ref(false);
   let timer: ReturnType<typeof setTimeout> | undefined;
 
   watch(form, () => {
+    touched.value = true;
     serverIssues.value = [];
     clearTimeout(timer);
     timer = setTimeout(() => { validation.value = validateForm(form); }, VALIDATION_DELAY_MS);
   }, { deep: true });
 
-  const issues = computed(() => [...validation.value.issues, ...serverIssues.value]);
+  const issues = computed(() => relocateIssues([...validation.value.issues, ...serverIssues.value], declaredParameters(form)));
+  const shown = computed(() => (touched.value ? issues.value : []));
   const names = computed(() => parameterNames(form));
-  const unclaimed = computed(() => unclaimedIssues(issues.value, formFields(form, names.value)));
+  const unclaimed = computed(() => unclaimedIssues(shown.value, formFields(form, names.value)));
   const yaml = computed(() => stringify(formToPlan(form).plan));
 
   return {
@@ -92,9 +96,10 @@ export function usePlanForm(initial: PlanForm = emptyForm()) {
     unclaimed,
     parameterNames: names,
     yaml,
-    messages: (field: FieldRef) => messagesAt(issues.value, field),
+    messages: (field: FieldRef) => messagesAt(shown.value, field),
     /** Validates now (before a submit), without waiting for the debounce. */
     validateNow: () => {
+      touched.value = true;
       clearTimeout(timer);
       validation.value = validateForm(form);
       return validation.value;

@@ -53,3 +53,17 @@ export function formFields(form: PlanForm, parameterNames: readonly string[]): F
 export function unclaimedIssues(issues: readonly PlanIssue[], refs: readonly FieldRef[]): PlanIssue[] {
   return issues.filter((issue) => !refs.some((f) => claims(f, issue.path)));
 }
+
+const DECLARED = /^potential\.parameters\[(\d+)\]$/;
+
+/**
+ * "has no value" is reported at the declared name (potential.parameters[i]); the value belongs in
+ * that parameter's own input, so the issue moves there.
+ */
+export function relocateIssues(issues: readonly PlanIssue[], declared: readonly string[]): PlanIssue[] {
+  return issues.map((issue) => {
+    const m = DECLARED.exec(issue.path);
+    const name = m ? declared[Number(m[1])] : undefined;
+    return name !== undefined && issue.message.includes('has no value') ? { ...issue, path: `fixed.${name}` } : issue;
+  });
+}
