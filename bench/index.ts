@@ -1,10 +1,13 @@
 /**
- * `npm run bench [-- --json] [-- --seconds S] [-- --service-points N (0 skips)]`: speed figures of the physics core on one core,
- * beside a plain scipy script doing the same work at the same tolerance. With --json the last
- * line is one JSON object (the benchmark contract in DESIGN.md).
+ * `npm run bench [-- --json] [-- --seconds S] [-- --service-points N (0 skips)] [-- --scaleout [--scaleout-points N]]`:
+ * speed figures of the physics core on one core, beside a plain scipy script doing the same work
+ * at the same tolerance. --scaleout adds 1 and 2 `rollway worker` processes on a temporary
+ * PostgreSQL (200,000 points by default, a few minutes on 2 cores). With --json the last line is
+ * one JSON object (the benchmark contract in DESIGN.md).
  */
 import { availableParallelism } from 'node:os';
 import { measurePhysics } from './physics.ts';
+import { measureScaleout } from './scaleout.ts';
 import { measureService } from './service.ts';
 
 const args = process.argv.slice(2);
@@ -17,9 +20,11 @@ const servicePoints = pointsArg >= 0 ? Number(args[pointsArg + 1]) : 100_000;
 const physics = measurePhysics(seconds);
 const workers = availableParallelism();
 const service = servicePoints > 0 ? await measureService(servicePoints, workers) : undefined;
+const scaleoutArg = args.indexOf('--scaleout-points');
+const scaleout = args.includes('--scaleout') ? await measureScaleout(scaleoutArg >= 0 ? Number(args[scaleoutArg + 1]) : 200_000) : undefined;
 // The raw compute rate the service is compared with: the one-core rate times the worker threads.
 const serviceRawRatio = service ? service.servicePointsPerSecond / (physics.fastPointsPerSecond * workers) : undefined;
-const figures = { ...physics, ...service, ...(serviceRawRatio === undefined ? {} : { serviceRawRatio }) };
+const figures = { ...physics, ...service, ...(serviceRawRatio === undefined ? {} : { serviceRawRatio }), ...scaleout };
 const rows: Array<[string, string]> = [
   ['fast path, starobinsky (points/s, one core)', figures.fastPointsPerSecond.toFixed(0)],
   ['fast path, same potential as custom expression', figures.customExprPointsPerSecond.toFixed(0)],
@@ -36,6 +41,14 @@ if (service) {
     ['  service / (one-core rate x workers)', serviceRawRatio!.toFixed(2)],
     ['  server peak memory (MB)', service.serverPeakMB.toFixed(0)],
     ['  sorted, filtered 1,000-row page, median (ms)', service.pageQueryMedianMs.toFixed(1)],
+  );
+}
+if (scaleout) {
+  rows.push(
+    [`scale-out, ${scaleout.scaleoutPoints} points, 1 worker (points/s)`, scaleout.workers1PointsPerSecond.toFixed(0)],
+    ['  2 worker processes, one thread each (points/s)', scaleout.workers2PointsPerSecond.toFixed(0)],
+    ['  2 / 1 workers (target >= 1.7 on 2 cores)', scaleout.scaleoutRatio.toFixed(2)],
+    [`  embedded default, same plan, ${workers} threads`, scaleout.scaleoutEmbeddedPointsPerSecond.toFixed(0)],
   );
 }
 for (const [label, value] of rows) process.stdout.write(`${label.padEnd(50)}${value}\n`);

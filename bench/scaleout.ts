@@ -1,0 +1,70 @@
+import { mkdtemp, rm } from 'node:fs/promises';
+import { availableParallelism, tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { pino } from 'pino';
+import { openEmbedded, type Embedded } from '../server/embedded.ts';
+import { startPostgres } from '../tests/helpers/postgres.ts';
+import { createDatabase, startWorker, STAROBINSKY, waitForScan, type WorkerProcess } from '../tests/scaleout/cluster.ts';
+
+/**
+ * Scale-out figures: the same fast Starobinsky scan computed by 1 and then 2 `rollway worker`
+ * processes (one thread each) against a temporary PostgreSQL server on this machine, the server
+ * computing nothing itself (ROLLWAY_WORKERS=0). points/s run from the scan's start to its end
+ * (database timestamps), so worker start-up is not counted. A fresh database per run. Beside
+ * them the embedded default (PGlite on disk, one local thread per core) on the same plan.
+ */
+export interface ScaleoutFigures {
+  scaleoutPoints: number;
+  workers1PointsPerSecond: number;
+  workers2PointsPerSecond: number;
+  /** workers2 / workers1; the target is >= 1.7 on 2 cores. */
+  scaleoutRatio: number;
+  scaleoutEmbeddedPointsPerSecond: number;
+}
+
+async function timedScan(core: Embedded, points: number): Promise<number> {
+  const scan = await core.scans.submit({ planText: STAROBINSKY('scale-out benchmark', points) });
+  const done = await waitForScan(core, scan.id, 30 * 60_000);
+  if (done.state !== 'completed') throw new Error(`benchmark scan ended ${done.state}`);
+  return points / ((Date.parse(done.finishedAt!) - Date.parse(done.startedAt!)) / 1000);
+}
+
+async function withWorkers(serverUrl: string, count: number, points: number): Promise<number> {
+  const url = await createDatabase(serverUrl, `bench_${count}_workers`);
+  const core = await openEmbedded({ databaseUrl: url, workers: 0, batchSize: 500, logger: pino({ level: 'warn' }) });
+  const workers: WorkerProcess[] = [];
+  try {
+    for (let i = 0; i < count; i++) workers.push(await startWorker(url, 1));
+    return await timedScan(core, points);
+  } finally {
+    for (const w of workers) w.child.kill('SIGTERM');
+    await Promise.all(workers.map((w) => w.exited));
+    await core.close();
+  }
+}
+
+async function embedded(points: number): Promise<number> {
+  const dataDir = await mkdtemp(join(tmpdir(), 'rollway-bench-embedded-'));
+  const core = await openEmbedded({ dataDir, workers: availableParallelism(), batchSize: 500, logger: pino({ level: 'warn' }) });
+  try {
+    return await timedScan(core, points);
+  } finally {
+    await core.close();
+    await rm(dataDir, { recursive: true, force: true });
+  }
+}
+
+export async function measureScaleout(points: number): Promise<ScaleoutFigures> {
+  const postgres = await startPostgres();
+  try {
+    const workers1PointsPerSecond = await withWorkers(postgres.url, 1, points);
+    const workers2PointsPerSecond = await withWorkers(postgres.url, 2, points);
+    return {
+      scaleoutPoints: points, workers1PointsPerSecond, workers2PointsPerSecond,
+      scaleoutRatio: workers2PointsPerSecond / workers1PointsPerSecond,
+      scaleoutEmbeddedPointsPerSecond: await embedded(points),
+    };
+  } finally {
+    await postgres.destroy();
+  }
+}
