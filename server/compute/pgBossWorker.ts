@@ -58,7 +58,11 @@ export async function startPgBossWorker({ db, boss, logger, concurrency }: PgBos
     const complete = () => persist(() => boss.complete(BATCH_QUEUE, job.id));
 
     const batch = await persist(() => startBatch(db, job.data.batchId, heartbeat.id, job.expireInSeconds));
-    if (!batch) return void (await complete()); // done elsewhere, failed, or its scan is no longer wanted
+    if (!batch) {
+      // Done elsewhere or failed (then this changes nothing), or its scan was cancelled: its points stay pending.
+      await persist(() => returnBatch(db, job.data.batchId));
+      return void (await complete());
+    }
     entry.batch = batch;
     let output: BatchOutput | undefined;
     try {
