@@ -23,8 +23,11 @@ async function peakMB(pid: number): Promise<number> {
   return Number(/VmHWM:\s+(\d+)/.exec(status)![1]) / 1024;
 }
 
-async function json<T>(url: string, init?: RequestInit): Promise<T> {
-  const res = await fetch(url, init);
+const ADMIN = { email: 'bench@rollway.test', password: 'bench-admin-password' };
+let authorization = '';
+
+async function json<T>(url: string, init: RequestInit = {}): Promise<T> {
+  const res = await fetch(url, { ...init, headers: { ...(init.headers as Record<string, string>), authorization } });
   if (!res.ok) throw new Error(`${url}: ${res.status} ${await res.text()}`);
   return (await res.json()) as T;
 }
@@ -32,7 +35,7 @@ async function json<T>(url: string, init?: RequestInit): Promise<T> {
 export async function measureService(points: number, workers: number): Promise<ServiceFigures> {
   const dataDir = await mkdtemp(join(tmpdir(), 'rollway-bench-'));
   const child = spawn(process.execPath, [BIN, 'serve', '--port', '0', '--data-dir', dataDir], {
-    env: { ...process.env, LOG_LEVEL: 'warn', ROLLWAY_WORKERS: String(workers) },
+    env: { ...process.env, LOG_LEVEL: 'warn', ROLLWAY_WORKERS: String(workers), ROLLWAY_MAIL: 'off', ROLLWAY_ADMIN_EMAIL: ADMIN.email, ROLLWAY_ADMIN_PASSWORD: ADMIN.password },
     stdio: ['ignore', 'pipe', 'inherit'],
   });
   try {
@@ -45,6 +48,8 @@ export async function measureService(points: number, workers: number): Promise<S
       });
       child.once('exit', (code) => reject(new Error(`server exited ${code}`)));
     });
+    const login = await json<{ token: string }>(`${base}/api/v1/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ ...ADMIN, returnToken: true }) });
+    authorization = `Bearer ${login.token}`;
     const planText = `title: service benchmark\npotential: { family: starobinsky }\naxes:\n  - { name: pivotEfolds, range: { from: 50, to: 60, count: ${points} } }\n`;
     const scan = await json<{ id: number }>(`${base}/api/v1/scans`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ planText }) });
     const deadline = Date.now() + 30 * 60_000;

@@ -52,8 +52,9 @@ export function scansRouter(service: ScansService, events: ScanEvents): Router {
   router.get('/:id/events', async (req, res) => {
     const first = await service.view(scanId(req.params.id));
     res.writeHead(200, { 'content-type': 'text/event-stream', 'cache-control': 'no-cache', connection: 'keep-alive' });
+    // Progress published by the dispatcher carries no names; they do not change, so keep the first ones.
     const send = (view: typeof first) => {
-      res.write(`event: progress\ndata: ${JSON.stringify(view)}\n\n`);
+      res.write(`event: progress\ndata: ${JSON.stringify({ ...view, owner: first.owner, group: first.group })}\n\n`);
       if (TERMINAL_STATES.has(view.state)) res.end();
     };
     send(first);
