@@ -23,12 +23,15 @@ let userDir: string;
 const consoleErrors: string[] = [];
 
 beforeAll(async () => {
-  // What `npm run build:web` does: the server serves dist/web.
-  await build({ configFile: join(process.cwd(), 'vite.config.ts'), logLevel: 'warn' });
-  server = await startTestServer(TEST_ADMIN_ENV);
-  base = server.url;
   userDir = mkdtempSync(join(tmpdir(), 'rollway-plan-e2e-'));
-  context = await chromium.launchPersistentContext(userDir, { executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS, viewport: { width: 1400, height: 1000 } });
+  // Independent, so side by side: the build (what `npm run build:web` does; the server serves
+  // dist/web and looks the folder up per request), the server and the browser.
+  [, server, context] = await Promise.all([
+    build({ configFile: join(process.cwd(), 'vite.config.ts'), logLevel: 'warn' }),
+    startTestServer(TEST_ADMIN_ENV),
+    chromium.launchPersistentContext(userDir, { executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS, viewport: { width: 1400, height: 1000 } }),
+  ]);
+  base = server.url;
   page = context.pages()[0] ?? await context.newPage();
   page.on('console', (m) => { if (m.type() === 'error') consoleErrors.push(m.text()); });
   page.on('pageerror', (e) => consoleErrors.push(e.message));
@@ -71,7 +74,7 @@ describe('New scan in the browser', () => {
     expect(ns).toBeGreaterThan(0.96);
     expect(ns).toBeLessThan(0.97);
     await expect.poll(() => page.locator('[data-test="preview"] canvas').count()).toBeGreaterThan(0);
-    await page.screenshot({ path: join(SCREENS, 'plan-builder.png'), fullPage: true });
+    await page.screenshot({ path: join(SCREENS, 'plan-builder.png') });
 
     await page.locator('[data-test="show-yaml"]').click();
     const yaml = await page.locator('[data-test="plan-yaml"]').textContent();
@@ -104,7 +107,7 @@ describe('New scan in the browser', () => {
     await page.locator('[data-test="plan-file"]').setInputFiles({ name: 'broken.yaml', mimeType: 'text/yaml', buffer: Buffer.from('title: [unclosed\n') });
     await expect.poll(() => page.locator('[data-test="upload-problems"]').textContent()).toMatch(/YAML syntax error at line \d+/);
     expect(await field('title').inputValue()).toBe('Uploaded');
-    await page.screenshot({ path: join(SCREENS, 'plan-upload-problems.png'), fullPage: true });
+    await page.screenshot({ path: join(SCREENS, 'plan-upload-problems.png') });
   });
 
   it('logged no console errors', () => {
