@@ -65,10 +65,17 @@ describe('a heatmap cell as a point', () => {
     }
   });
 
+  it('finds the axis value when the browser expands a log range a bit differently from the server', () => {
+    // Chromium gives exp(log(0.1) + 0.5 (log 100 - log 0.1)) = 3.1622776601683795, Node 3.16227766016838.
+    const v = source.valuesAt(2 * 3 + 1);
+    expect(cellPointIndex(plan as unknown as Record<string, unknown>, 'alpha', 'pivotEfolds', v.alpha! * (1 + 2 ** -52), v.pivotEfolds!)).toBe(7);
+  });
+
   it('opens nothing when a cell holds several points or the value is not on the axis', () => {
     const three = validatePlan({ ...plan, fixed: {}, axes: [...plan.axes, { name: 'V0', values: [1, 2] }] });
     expect(cellPointIndex(three as unknown as Record<string, unknown>, 'alpha', 'pivotEfolds', 0.1, 50)).toBeNull();
     expect(cellPointIndex(plan as unknown as Record<string, unknown>, 'alpha', 'pivotEfolds', 0.2, 50)).toBeNull();
+    expect(cellPointIndex(plan as unknown as Record<string, unknown>, 'alpha', 'pivotEfolds', 0.1 * (1 + 1e-7), 50)).toBeNull();
     expect(cellPointIndex({ ...plan, combine: 'zip' } as unknown as Record<string, unknown>, 'alpha', 'pivotEfolds', 0.1, 50)).toBeNull();
   });
 });

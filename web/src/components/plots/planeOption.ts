@@ -107,12 +107,14 @@ export function planeNotes(layers: readonly PlaneLayer[], hidden: readonly numbe
   return notes;
 }
 
+const regionName = (level: RegionPolygon['level'], set: BoundSet) => `${level === 'inside68' ? '68%' : '95%'} region (${set.label})`;
+
 function regionSeries(regions: RegionPolygon[], ink: PlotInk, set: BoundSet): PlotOption['series'] {
   return regions.map((region) => {
     const style = region.level === 'inside68' ? ink.region68 : ink.region95;
     return {
       type: 'custom' as const,
-      name: `${region.level === 'inside68' ? '68%' : '95%'} region (${set.label})`,
+      name: regionName(region.level, set),
       silent: true,
       clip: true,
       z: 1,
@@ -143,7 +145,8 @@ export function buildPlaneOption({ layers, logR, ink, title }: PlaneOptionInput)
       id: String(layer.scanId),
       name: layer.name,
       data,
-      symbolSize: 5,
+      // Few points read better large; many must not cover each other.
+      symbolSize: data.length > LARGE_THRESHOLD ? 4 : 8,
       // Large mode draws all points as one path: 10^5 points stay interactive.
       large: true,
       largeThreshold: LARGE_THRESHOLD,
@@ -161,7 +164,11 @@ export function buildPlaneOption({ layers, logR, ink, title }: PlaneOptionInput)
     textStyle: { fontFamily: 'IBM Plex Sans, system-ui, sans-serif', color: ink.text },
     title: { text: title, subtext: notes.join(' · '), left: 8, top: 4, textStyle: { fontSize: 14, color: ink.text }, subtextStyle: { color: ink.muted } },
     grid: { left: 72, right: scale ? 110 : 24, top: notes.length > 0 ? 78 : 58, bottom: 56 },
-    legend: { top: notes.length > 0 ? 50 : 30, right: scale ? 110 : 24, textStyle: { color: ink.text } },
+    // A coloured single scan takes its colours from the bar, so only the regions go in the legend.
+    legend: {
+      top: notes.length > 0 ? 50 : 30, right: scale ? 110 : 24, textStyle: { color: ink.text },
+      ...(single ? { data: regions.map((r) => regionName(r.level, set)) } : {}),
+    },
     tooltip: {
       trigger: 'item',
       formatter: (p: unknown) => {
@@ -173,13 +180,14 @@ export function buildPlaneOption({ layers, logR, ink, title }: PlaneOptionInput)
     },
     xAxis: {
       type: 'value', name: 'n_s', nameLocation: 'middle', nameGap: 30, min: box.nsMin, max: box.nsMax,
-      axisLabel: { color: ink.muted, formatter: (v: number) => formatNumber(v, 'ns', 4) },
+      // The ends are the padded extent, not round numbers: their labels would crowd the ticks.
+      axisLabel: { color: ink.muted, showMinLabel: false, showMaxLabel: false, formatter: (v: number) => formatNumber(v, 'ns', 4) },
       axisLine: { lineStyle: { color: ink.axis } }, splitLine: { lineStyle: { color: ink.split } },
     },
     yAxis: {
       type: logR ? 'log' : 'value', logBase: 10, name: logR ? 'r (log scale)' : 'r', nameLocation: 'middle', nameGap: 56,
       min: box.rMin, max: box.rMax,
-      axisLabel: { color: ink.muted, formatter: (v: number) => formatNumber(v, 'r', 2) },
+      axisLabel: { color: ink.muted, showMinLabel: false, showMaxLabel: false, formatter: (v: number) => formatNumber(v, 'r', 2) },
       axisLine: { lineStyle: { color: ink.axis } }, splitLine: { lineStyle: { color: ink.split } },
     },
     series: [...(regionSeries(regions, ink, set) as object[]), ...scatter] as PlotOption['series'],

@@ -38,7 +38,7 @@ export function buildTrajectoryOption(t: TrajectorySamples, ink: PlotInk, title:
     grid: rows.map((_, i) => ({ left: 72, right: 24, top: `${8 + i * (height + 5)}%`, height: `${height}%` })),
     xAxis: rows.map((_, i) => ({
       type: 'value' as const, gridIndex: i, min: 0, max: t.nEnd, name: i === rows.length - 1 ? 'N (e-folds from the start)' : '', nameLocation: 'middle' as const, nameGap: 28,
-      ...axisStyle(ink), axisLabel: { show: i === rows.length - 1, color: ink.muted },
+      ...axisStyle(ink), axisLabel: { show: i === rows.length - 1, color: ink.muted, showMaxLabel: false },
     })),
     yAxis: rows.map((row, i) => ({ type: row.log ? ('log' as const) : ('value' as const), gridIndex: i, name: row.name, nameLocation: 'middle' as const, nameGap: 50, scale: true, ...axisStyle(ink) })),
     series: rows.map((row, i) => ({
