@@ -1,5 +1,6 @@
 import type PgBoss from 'pg-boss';
 import type { Logger } from 'pino';
+import { PHYSICS_VERSION } from '../../shared/physics/version.ts';
 import type { Database } from '../db/client.ts';
 import type { Batch } from '../db/schema/batches.ts';
 import { startHeartbeat } from '../workers/heartbeat.ts';
@@ -56,14 +57,26 @@ export async function startPgBossWorker({ db, boss, logger, concurrency }: PgBos
     const giveUpAt = Date.now() + Math.max(job.expireInSeconds * 1000, MIN_PERSIST_MS);
     const persist = <T>(step: () => Promise<T>) => retryTransient(step, giveUpAt, (error) => log.warn({ reason: rootMessage(error), batchId: job.data.batchId }, 'database away, trying again'));
     const complete = () => persist(() => boss.complete(BATCH_QUEUE, job.id));
+    /** pg-boss retries the job (retryLimit), then moves it to the failed queue, where the server marks the batch. */
+    const failTry = async (message: string) => {
+      await persist(() => noteBatchError(db, job.data.batchId, message));
+      await persist(() => boss.fail(BATCH_QUEUE, job.id, { message }));
+    };
 
-    const batch = await persist(() => startBatch(db, job.data.batchId, heartbeat.id, job.expireInSeconds));
-    if (!batch) {
+    const started = await persist(() => startBatch(db, job.data.batchId, heartbeat.id, job.expireInSeconds));
+    if (!started) {
       // Done elsewhere or failed (then this changes nothing), or its scan was cancelled: its points stay pending.
       await persist(() => returnBatch(db, job.data.batchId));
       return void (await complete());
     }
+    const { batch, physicsVersion } = started;
     entry.batch = batch;
+    if (physicsVersion !== PHYSICS_VERSION) {
+      // Numbers of another release must not land in this scan: a failed try, so a worker of the right release can take it.
+      const message = `physics version ${physicsVersion} stored this scan, but worker ${heartbeat.id} runs ${PHYSICS_VERSION}: run the same Rollway release on every machine`;
+      log.error({ batchId: batch.id }, message);
+      return failTry(message);
+    }
     let output: BatchOutput | undefined;
     try {
       output = await runner.compute(batch, aborter.signal);
@@ -73,12 +86,8 @@ export async function startPgBossWorker({ db, boss, logger, concurrency }: PgBos
         await persist(() => returnBatch(db, batch.id));
         return void (await complete());
       }
-      const message = rootMessage(error);
       log.error({ err: error, batchId: batch.id, scanId: batch.scanId, try: job.retryCount + 1 }, 'batch failed');
-      await persist(() => noteBatchError(db, batch.id, message));
-      // pg-boss retries it (retryLimit), then moves it to the failed queue, where the server marks it.
-      await persist(() => boss.fail(BATCH_QUEUE, job.id, { message }));
-      return;
+      return failTry(rootMessage(error));
     }
     if (output) {
       const stored = await persist(() => storeBatch(db, batch, output));

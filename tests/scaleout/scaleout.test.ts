@@ -145,18 +145,24 @@ describe('scale-out: one server and rollway worker processes on PostgreSQL', () 
     const url = await createDatabase(postgres.url, 'failing_batch');
     const core = await openServer(url);
     try {
-      const submitted = await core.scans.submit({ planText: STAROBINSKY('cannot compute', 200) });
-      // A stored plan no worker can compile (as a plan from a newer release might be).
-      await core.handle.db.update(scans).set({ plan: sql`${scans.plan} - 'precision'` }).where(eq(scans.id, submitted.id));
+      const db = core.handle.db;
+      const broken = await core.scans.submit({ planText: STAROBINSKY('cannot compute', 200) });
+      const foreign = await core.scans.submit({ planText: STAROBINSKY('another release', 200) });
+      // A stored plan no worker can compile, and a scan stored by another physics version.
+      await db.update(scans).set({ plan: sql`${scans.plan} - 'precision'` }).where(eq(scans.id, broken.id));
+      await db.update(scans).set({ physicsVersion: 'from-another-release' }).where(eq(scans.id, foreign.id));
       await join(url);
-      const done = await waitForScan(core, submitted.id, 60_000);
-      expect(done.state).toBe('failed');
-      const [batch] = await core.handle.db.select().from(batches).where(eq(batches.scanId, submitted.id));
-      expect(batch!.state).toBe('failed');
-      expect(batch!.attempts).toBe(3);
-      expect(batch!.error).toMatch(/precision/);
-      const [scan] = await core.handle.db.select().from(scans).where(eq(scans.id, submitted.id));
-      expect(scan!.error).toMatch(/^batch at point 0: .*precision/);
+      for (const [id, reason] of [[broken.id, /precision/], [foreign.id, /physics version from-another-release stored this scan.*same Rollway release/]] as const) {
+        expect((await waitForScan(core, id, 60_000)).state).toBe('failed');
+        const [batch] = await db.select().from(batches).where(eq(batches.scanId, id));
+        expect(batch!.state).toBe('failed');
+        expect(batch!.attempts).toBe(3);
+        expect(batch!.error).toMatch(reason);
+        const [scan] = await db.select().from(scans).where(eq(scans.id, id));
+        expect(scan!.error).toMatch(/^batch at point 0: /);
+        expect(scan!.error).toMatch(reason);
+        expect(await pointCensus(db, id)).toMatchObject({ rows: 0 });
+      }
     } finally {
       await core.close();
     }
