@@ -1,11 +1,11 @@
-import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { mkdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { build } from 'vite';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ScanPlanInput } from '../../shared/plan/scanPlan.ts';
 import { TEST_ADMIN, TEST_ADMIN_ENV } from '../helpers/auth.ts';
+import { openBrowser, signInBrowser, type TestBrowser } from '../helpers/browser.ts';
 import { api, startTestServer, waitForScan } from '../helpers/server.ts';
 
 /**
@@ -14,16 +14,13 @@ import { api, startTestServer, waitForScan } from '../helpers/server.ts';
  * from the heatmap to the point detail page, and the compare page over two scans.
  */
 const SCREENS = join(process.cwd(), 'tests/.artifacts/screens');
-const CHROMIUM_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'];
 
 let server: Awaited<ReturnType<typeof startTestServer>>;
 let base: string;
-let context: BrowserContext;
+let browser: TestBrowser;
 let page: Page;
-let userDir: string;
 let grid: number;
 let other: number;
-const consoleErrors: string[] = [];
 
 const submit = async (plan: ScanPlanInput) => {
   const { status, body } = await api(server.url, '/scans', { method: 'POST', json: { plan } });
@@ -38,26 +35,17 @@ beforeAll(async () => {
   grid = await submit({ title: 'Plots e2e: E-model grid', potential: { family: 'e-model' }, fixed: { V0: 1 },
     axes: [{ name: 'alpha', logRange: { from: 0.1, to: 100, count: 5 } }, { name: 'pivotEfolds', values: [50, 55, 60] }] });
   other = await submit({ title: 'Plots e2e: T-model', potential: { family: 't-model' }, axes: [{ name: 'alpha', logRange: { from: 0.1, to: 100, count: 4 } }], pivot: { efolds: 55 } });
-  userDir = mkdtempSync(join(tmpdir(), 'rollway-plots-e2e-'));
-  context = await chromium.launchPersistentContext(userDir, { executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS, viewport: { width: 1400, height: 1000 }, acceptDownloads: true });
-  page = context.pages()[0] ?? await context.newPage();
-  page.on('console', (m) => { if (m.type() === 'error') consoleErrors.push(m.text()); });
-  page.on('pageerror', (e) => consoleErrors.push(e.message));
+  browser = await openBrowser();
+  page = browser.page;
   mkdirSync(SCREENS, { recursive: true });
-  // Sign in from a page of the origin that makes no API calls of its own, so the cookie is the browser's.
-  await page.goto(`${base}/api/v1/health`);
-  const status = await page.evaluate(async (c) => (await fetch('/api/v1/auth/login', {
-    method: 'POST', credentials: 'same-origin', headers: { 'content-type': 'application/json' }, body: JSON.stringify(c),
-  })).status, TEST_ADMIN);
-  expect(status).toBe(200);
+  expect(await signInBrowser(page, base, TEST_ADMIN)).toBe(200);
   await waitForScan(server.url, grid);
   await waitForScan(server.url, other);
 }, 180_000);
 
 afterAll(async () => {
-  await context?.close();
+  await browser?.close();
   await server?.stop();
-  if (userDir) rmSync(userDir, { recursive: true, force: true });
 });
 
 /** Clicks an export button and returns the downloaded file's name and bytes. */
@@ -69,13 +57,17 @@ async function download(button: string): Promise<{ name: string; bytes: Buffer }
 const PNG_SIGNATURE = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
 const pngSize = (bytes: Buffer) => ({ width: bytes.readUInt32BE(16), height: bytes.readUInt32BE(20) });
 const chartCanvas = () => page.locator('.plot-frame canvas').first();
+/** Opens a page with a plot, waits until it is drawn and ready to export, and takes its screenshot. */
+async function showPlot(path: string, screenshot: string): Promise<void> {
+  await page.goto(`${base}${path}`);
+  await chartCanvas().waitFor({ timeout: 20_000 });
+  await expect.poll(() => page.locator('.plot-frame [data-test="export-png"]').isEnabled()).toBe(true);
+  await page.screenshot({ path: join(SCREENS, screenshot), fullPage: true });
+}
 
 describe('plots in the browser', () => {
   it('draws the n_s–r plane of a finished scan and exports it as PNG and SVG', async () => {
-    await page.goto(`${base}/scans/${grid}?tab=plane`);
-    await chartCanvas().waitFor({ timeout: 20_000 });
-    await expect.poll(() => page.locator('.plot-frame [data-test="export-png"]').isEnabled()).toBe(true);
-    await page.screenshot({ path: join(SCREENS, 'plots-plane.png'), fullPage: true });
+    await showPlot(`/scans/${grid}?tab=plane`, 'plots-plane.png');
 
     const png = await download('export-png');
     expect(png.name).toBe(`scan-${grid}-plane.png`);
@@ -94,10 +86,7 @@ describe('plots in the browser', () => {
   });
 
   it('draws a heatmap over the two axes, and a click on a cell opens that point', async () => {
-    await page.goto(`${base}/scans/${grid}?tab=maps`);
-    await chartCanvas().waitFor({ timeout: 20_000 });
-    await expect.poll(() => page.locator('.plot-frame [data-test="export-png"]').isEnabled()).toBe(true);
-    await page.screenshot({ path: join(SCREENS, 'plots-heatmap.png'), fullPage: true });
+    await showPlot(`/scans/${grid}?tab=maps`, 'plots-heatmap.png');
     const png = await download('export-png');
     expect(png.name).toBe(`scan-${grid}-heatmap-ns-alpha-pivotEfolds.png`);
     expect(png.bytes.subarray(0, 8).equals(PNG_SIGNATURE)).toBe(true);
@@ -138,6 +127,6 @@ describe('plots in the browser', () => {
   });
 
   it('logged no console errors', () => {
-    expect(consoleErrors).toEqual([]);
+    expect(browser.consoleErrors).toEqual([]);
   });
 });
