@@ -18,7 +18,11 @@ export function exitCodeFor(status: number): number {
 /** What to do next, after the server's own message. */
 function hint(error: ApiError): string {
   if (error.status === 0) return '; is the server running? Check the URL (rollway login --url, or ROLLWAY_URL)';
-  if (error.status === 401) return '; sign in again with rollway login --url URL --email E (or set ROLLWAY_TOKEN to a valid API token)';
+  if (error.status === 401) {
+    return process.env.ROLLWAY_TOKEN
+      ? '; the server does not accept the credential in ROLLWAY_TOKEN: make a new token (rollway tokens create) or unset it'
+      : '; sign in again with rollway login --url URL --email E';
+  }
   if (error.status === 403) return '; ask an admin if you need this';
   if (error.status === 429) return '; wait a moment and try again';
   if (error.status >= 500) return '; try again later, or ask the server\'s admin to look at its log';

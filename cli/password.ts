@@ -13,8 +13,9 @@ export async function readStdin(what: string): Promise<string> {
 export async function askHidden(prompt: string): Promise<string> {
   const stdin = process.stdin;
   if (!stdin.isTTY) throw new InvalidInputError('no terminal to ask for the password on: pipe it in with --password-stdin', '--password-stdin');
-  process.stderr.write(prompt);
+  // Echo goes off before the prompt shows, so nothing typed after it can appear.
   stdin.setRawMode(true);
+  process.stderr.write(prompt);
   stdin.setEncoding('utf8');
   stdin.resume();
   return new Promise((resolve, reject) => {

@@ -1,5 +1,6 @@
 import { Command } from 'commander';
 import { pointRequestSchema } from '../../shared/plan/pointRequest.ts';
+import { examples } from '../help.ts';
 import { printPointTable } from '../output.ts';
 
 /** End fields for families that never end by themselves, so the table can include them. */
@@ -8,6 +9,7 @@ const END_PHI: Record<string, number> = { exponential: 10 };
 export const families = new Command('families')
   .description('compute every built-in family at its default parameters (N_* = 55, exact spectra) and print a table')
   .option('--pivot-efolds <N>', 'e-folds between the pivot and the end of inflation', '55')
+  .addHelpText('after', examples('rollway families', 'rollway families --pivot-efolds 60'))
   .action(async (options: { pivotEfolds: string }) => {
     const [{ FAMILIES }, { computePoint }, { preparePoint }] = await Promise.all([
       import('../../shared/physics/potential/families.ts'),

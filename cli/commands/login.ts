@@ -1,7 +1,7 @@
 import { Command } from 'commander';
 import { API_TOKEN_PREFIX } from '../../shared/api/accounts.ts';
-import { createApiClient } from '../../shared/api/client.ts';
-import { InvalidInputError } from '../../shared/errors.ts';
+import { ApiError, createApiClient } from '../../shared/api/client.ts';
+import { InvalidInputError, RollwayError } from '../../shared/errors.ts';
 import { credentialsPath, writeStored, type StoredCredential } from '../credentials.ts';
 import { examples } from '../help.ts';
 import { printJson } from '../output.ts';
@@ -29,7 +29,11 @@ async function login(options: LoginOptions): Promise<void> {
   } else {
     if (!options.email) throw new InvalidInputError('--email: give the e-mail you sign in with (or --token rwt_… for an API token)', '--email');
     const password = options.passwordStdin ? await readStdin('--password-stdin') : await askHidden(`Password for ${options.email} at ${url}: `);
-    const session = await createApiClient({ url }).login({ email: options.email, password });
+    const session = await createApiClient({ url }).login({ email: options.email, password }).catch((error: unknown) => {
+      // Here a 401 is a wrong e-mail or password, not a session to renew.
+      if (error instanceof ApiError && error.status === 401) throw new RollwayError(error.code, `not signed in: ${error.message} (${options.email} at ${url}); check the e-mail and password`, 401);
+      throw error;
+    });
     if (!session.token) throw new InvalidInputError('the server signed you in but sent no session token for the CLI; is it an older Rollway?', 'token');
     stored = { url, token: session.token, kind: 'session', email: session.user.email };
     expiresAt = session.expiresAt;

@@ -3,6 +3,7 @@ import { availableParallelism } from 'node:os';
 import { Command } from 'commander';
 import { TERMINAL_STATES, type ScanView } from '../../shared/api/scans.ts';
 import { InvalidInputError } from '../../shared/errors.ts';
+import { examples } from '../help.ts';
 import { printJson } from '../output.ts';
 
 interface RunOptions {
@@ -50,5 +51,5 @@ export const run = new Command('run')
   .option('--data-dir <dir>', 'folder of the embedded database', './rollway-data')
   .option('--workers <n>', 'worker threads (default: all cores)')
   .option('--json', 'print the finished scan as JSON')
-  .addHelpText('after', '\nExample:\n  rollway run examples/quick-check.yaml --data-dir ./my-scans')
+  .addHelpText('after', examples('rollway run examples/quick-check.yaml --data-dir ./my-scans', 'rollway run plan.yaml --workers 2 --json'))
   .action(runPlan);

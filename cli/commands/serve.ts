@@ -1,4 +1,5 @@
 import { Command } from 'commander';
+import { examples } from '../help.ts';
 
 /** Starts the API and local workers on the embedded database; runs until interrupted. */
 async function serve(options: { demo?: boolean; port?: string; dataDir?: string }): Promise<void> {
@@ -34,4 +35,5 @@ export const serveCommand = new Command('serve')
   .option('--port <port>', 'port to listen on (env PORT, default 4600)')
   .option('--data-dir <dir>', 'embedded database folder (env DATA_DIR, default ./data)')
   .option('--demo', 'queue the example scans of the demo scenario that are not stored yet')
+  .addHelpText('after', examples('rollway serve --demo', 'PORT=8080 rollway serve --data-dir /srv/rollway'))
   .action(serve);
