@@ -40,8 +40,8 @@ const numberColumn = (field: string, headerName: string, headerTooltip?: string,
   headerName,
   ...(headerTooltip ? { headerTooltip } : {}),
   width,
-  type: 'rightAligned',
-  cellClass: 'mono',
+  cellClass: 'mono ag-right-aligned-cell',
+  headerClass: 'ag-right-aligned-header',
   filter: 'agNumberColumnFilter',
   // The API ANDs one bound per operator; inRange maps to gte + lte, so it must include its ends.
   filterParams: { filterOptions: [...GRID_FILTER_OPTIONS], maxNumConditions: 1, inRangeInclusive: true, buttons: ['apply', 'reset'] },
@@ -53,7 +53,7 @@ export function resultColumns(plan: Record<string, unknown>): ColDef<ResultRow>[
   const params = [...axes, ...fixed].map((name): ColDef<ResultRow> => ({
     ...numberColumn(PARAM_PREFIX + name, name, axes.includes(name) ? `Axis ${name}` : `Fixed ${name}`, 110),
     valueGetter: (p) => p.data?.params[name] ?? null,
-    headerClass: 'rw-param-header',
+    headerClass: 'ag-right-aligned-header rw-param-header',
     hide: !axes.includes(name),
   }));
   const observable = ([field, header, tip]: [keyof ResultRow, string, string]) => ({ ...numberColumn(field, header, tip), field });
