@@ -43,7 +43,8 @@ export const API_TOKEN_PREFIX = 'rwt_';
 const email = z.string().trim().toLowerCase().email({ error: 'must be an e-mail address' }).max(254);
 /** Long enough to resist guessing, short enough for argon2 to hash cheaply. */
 export const passwordSchema = z.string().min(10, { error: 'must be at least 10 characters' }).max(200, { error: 'must be at most 200 characters' });
-const name = z.string().trim().max(100, { error: 'must be at most 100 characters' });
+// One line of text: control characters (NUL among them, which PostgreSQL text cannot hold) are refused.
+const name = z.string().trim().max(100, { error: 'must be at most 100 characters' }).regex(/^[^\u0000-\u001f\u007f]*$/, { error: 'must not contain control characters' });
 const id = z.number().int().positive();
 
 export const loginRequestSchema = z.strictObject({ email, password: z.string().min(1, { error: 'is required' }).max(200), returnToken: z.boolean().optional() });

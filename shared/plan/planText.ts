@@ -83,6 +83,8 @@ export function readPlanText(text: string, format?: PlanFormat): unknown {
   if (text.length > MAX_PLAN_TEXT) {
     throw new PlanValidationError([{ path: '', message: `the plan is ${text.length} characters long; at most ${MAX_PLAN_TEXT} are allowed` }]);
   }
+  const nul = text.indexOf('\u0000');
+  if (nul >= 0) throw new PlanValidationError([{ path: '', message: `the plan contains a NUL character at ${lineColumn(text, nul)}; a plan is plain text` }]);
   const json = format === 'json' || (format === undefined && text.trimStart().startsWith('{'));
   return json ? parseJson(text) : parseYaml(text);
 }

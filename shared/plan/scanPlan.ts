@@ -26,7 +26,8 @@ const whole = (min: number, max: number) => {
 const positive = finite.gt(0, { error: 'must be > 0 (a log range needs positive bounds)' });
 const text = (max: number) => {
   const error = unlessMissing(`must be a string of at most ${max} characters`);
-  return z.string({ error }).max(max, { error });
+  // PostgreSQL text and jsonb cannot hold NUL, and no plan needs one.
+  return z.string({ error }).max(max, { error }).refine((t) => !t.includes('\u0000'), { error: 'must not contain NUL characters' });
 };
 
 /** Exactly one of `keys` present: the union-by-key that zod's union reports only as "invalid input". */
