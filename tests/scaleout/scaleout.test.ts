@@ -126,15 +126,17 @@ describe('scale-out: one server and rollway worker processes on PostgreSQL', () 
     const core = await openServer(url);
     try {
       await Promise.all([join(url), join(url)]);
-      const submitted = await core.scans.submit({ planText: STAROBINSKY('database restart', 5000) });
-      const partway = await waitForScan(core, submitted.id, 60_000, (s) => s.pointsDone >= 500);
-      expect(partway.pointsDone).toBeLessThan(5000);
+      const submitted = await core.scans.submit({ planText: STAROBINSKY('database restart', 12_000) });
+      await waitForScan(core, submitted.id, 60_000, (s) => s.pointsDone >= 500);
+      const restartedAt = Date.now();
       await postgres.restart(1500);
 
-      const done = await waitForScan(core, submitted.id, 90_000);
+      const done = await waitForScan(core, submitted.id, 120_000);
       expect(done.state).toBe('completed');
-      expect(done.pointsDone).toBe(5000);
-      expect(await pointCensus(core.handle.db, submitted.id)).toEqual({ rows: 5000, distinct: 5000, first: 0, last: 4999 });
+      // Finished after the database went down, so the restart did hit the scan mid-way.
+      expect(Date.parse(done.finishedAt!)).toBeGreaterThan(restartedAt);
+      expect(done.pointsDone).toBe(12_000);
+      expect(await pointCensus(core.handle.db, submitted.id)).toEqual({ rows: 12_000, distinct: 12_000, first: 0, last: 11_999 });
       expect(workers.slice(-2).every((w) => w.child.exitCode === null)).toBe(true);
     } finally {
       await core.close();
