@@ -1,8 +1,10 @@
+import { mkdirSync } from 'node:fs';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_ACCOUNTS } from '../../server/demo/demoAccounts.ts';
 import { signIn } from '../helpers/auth.ts';
 import { api, startTestServer, waitForScan } from '../helpers/server.ts';
-import { openBrowser, type Browser } from './helpers/browser.ts';
+import { openBrowser, type TestBrowser } from '../helpers/browser.ts';
 import { ensureWebBuild } from './helpers/webBuild.ts';
 
 /**
@@ -15,14 +17,19 @@ const researcher = DEMO_ACCOUNTS.find((a) => a.role === 'researcher')!;
 const QUICK = 'Quick check, three E-model points with exact spectra';
 
 let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Browser;
+let browser: TestBrowser;
 let quickId: number;
+const ARTIFACTS = join(process.cwd(), 'tests/.artifacts');
+const screenshot = async (name: string) => void (await browser.page.screenshot({ path: join(ARTIFACTS, `${name}.png`), fullPage: true }));
 
 beforeAll(async () => {
   await ensureWebBuild();
   server = await startTestServer({ ROLLWAY_WORKERS: '2', ROLLWAY_DEFAULT_MAX_RUNNING: '10' }, { demo: true });
-  browser = await openBrowser();
+  browser = await openBrowser({ width: 1400, height: 900 });
   browser.page.setDefaultTimeout(15_000);
+  // The console names no URL for a failed load; this does (and says which answer it was).
+  browser.page.on('response', (r) => r.status() >= 400 && browser.consoleErrors.push(`HTTP ${r.status()} ${r.request().method()} ${new URL(r.url()).pathname}`));
+  mkdirSync(ARTIFACTS, { recursive: true });
   const { body } = await api(server.url, '/scans');
   quickId = (body.scans as { id: number; title: string }[]).find((s) => s.title === QUICK)!.id;
   await waitForScan(server.url, quickId);
@@ -35,14 +42,14 @@ afterAll(async () => {
 
 /** Chromium reports every 4xx answer on the console; the 401s of signing in are expected. */
 const EXPECTED = [/status of 401/, /^HTTP 401 GET \/api\/v1\/auth\/me$/, /^HTTP 401 POST \/api\/v1\/auth\/login$/];
-const unexpectedErrors = () => browser.errors.filter((e) => !EXPECTED.some((p) => p.test(e)));
+const unexpectedErrors = () => browser.consoleErrors.filter((e) => !EXPECTED.some((p) => p.test(e)));
 
 describe('web app', () => {
   it('sends a visitor to sign in and back to the page asked for, with one message for any wrong login', async () => {
     const { page } = browser;
     await page.goto(`${server.url}/scans/${quickId}`);
     await page.waitForURL(/\/sign-in\?next=/);
-    await browser.screenshot('sign-in');
+    await screenshot('sign-in');
     await page.getByLabel('E-mail').fill(researcher.email);
     await page.getByLabel('Password').fill('not the password');
     await page.getByRole('button', { name: 'Sign in' }).click();
@@ -64,7 +71,7 @@ describe('web app', () => {
     await page.getByRole('textbox', { name: 'Search titles' }).fill('hilltop');
     await expect.poll(() => page.getByRole('link', { name: QUICK }).count()).toBe(0);
     await page.getByRole('textbox', { name: 'Search titles' }).fill('');
-    await browser.screenshot('scans-list');
+    await screenshot('scans-list');
   });
 
   it("shows a scan's rows from the server and sorts them by a column on the server", async () => {
@@ -72,9 +79,9 @@ describe('web app', () => {
     await page.getByRole('link', { name: QUICK }).click();
     await page.waitForURL(`${server.url}/scans/${quickId}`);
     // The point index of each displayed row, in row order (AG Grid renders rows absolutely positioned).
-    const order = () => page.evaluate(() => [...document.querySelectorAll('.ag-row[row-index] .ag-cell[col-id="pointIndex"]')]
-      .map((cell) => [Number(cell.closest('.ag-row')!.getAttribute('row-index')), Number(cell.textContent)] as const)
-      .sort((a, b) => a[0] - b[0]).map(([, point]) => point));
+    const order = async () => (await page.locator('.ag-row[row-index] .ag-cell[col-id="pointIndex"]').evaluateAll((cells) =>
+      cells.map((cell) => [Number(cell.closest('.ag-row')?.getAttribute('row-index')), Number(cell.textContent)] as const)))
+      .sort((a, b) => a[0] - b[0]).map(([, point]) => point);
     await expect.poll(order, { timeout: 15_000 }).toEqual([0, 1, 2]);
     expect(await page.locator('.ag-row[row-index="1"] .ag-cell[col-id="ns"]').textContent()).toMatch(/^0\.9\d{5}$/);
     const sorted = (await api(server.url, `/scans/${quickId}/results?sort=ns&order=desc`)).body.rows as { pointIndex: number }[];
@@ -82,7 +89,7 @@ describe('web app', () => {
     await page.locator('.ag-header-cell[col-id="ns"] .ag-header-cell-label').click(); // descending
     await expect.poll(order, { timeout: 10_000 }).toEqual(sorted.map((r) => r.pointIndex));
     expect(new Set(sorted.map((r) => r.pointIndex)).size).toBe(3);
-    await browser.screenshot('scan-page');
+    await screenshot('scan-page');
     await page.getByRole('tab', { name: 'Plan & provenance' }).click();
     await page.getByLabel('Plan text').waitFor();
     expect(await page.getByLabel('Plan text').textContent()).toContain('family: e-model');
@@ -103,7 +110,7 @@ describe('web app', () => {
     await page.getByRole('dialog').getByRole('button', { name: 'Stop the scan' }).click();
     await page.getByText('Stopped', { exact: true }).waitFor();
     expect((await api(server.url, `/scans/${id}`)).body.state).toBe('cancelled');
-    await browser.screenshot('scan-stopped');
+    await screenshot('scan-stopped');
   });
 
   it('creates an API token, shows its secret once, and revokes it', async () => {
@@ -118,7 +125,7 @@ describe('web app', () => {
     await page.getByRole('button', { name: 'I have copied it' }).click();
     const row = page.getByRole('row', { name: /e2e notebook/ });
     await row.waitFor();
-    await browser.screenshot('tokens');
+    await screenshot('tokens');
     await row.getByRole('button', { name: 'Revoke' }).click();
     await page.getByRole('dialog').getByRole('button', { name: 'Revoke' }).click();
     await expect.poll(() => row.count()).toBe(0);
