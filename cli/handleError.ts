@@ -46,7 +46,8 @@ export function handleError(error: unknown, verbose = false): void {
     process.exitCode = exitCodeFor(error.status);
   } else if (error instanceof RollwayError) {
     process.stderr.write(`rollway: ${error.message}\n`);
-    process.exitCode = error.status >= 500 ? EXIT.failed : exitCodeFor(error.status);
+    // Ctrl-C at a prompt ends like any interrupted command (128 + SIGINT).
+    process.exitCode = error.code === 'interrupted' ? 130 : exitCodeFor(error.status);
   } else {
     const message = error instanceof Error ? error.message : String(error);
     process.stderr.write(`rollway: ${message}\n`);

@@ -1,6 +1,7 @@
 import { createWriteStream } from 'node:fs';
 import { rename, rm } from 'node:fs/promises';
 import { Readable, Transform } from 'node:stream';
+import type { ReadableStream as WebReadableStream } from 'node:stream/web';
 import { pipeline } from 'node:stream/promises';
 import { Command, Option } from 'commander';
 import type { DownloadOptions } from '../../shared/api/client.ts';
@@ -90,7 +91,7 @@ export const results = new Command('results')
       order: options.desc ? 'desc' : undefined, status: options.status, region: options.region,
     };
     const { client } = await connect();
-    const source = Readable.fromWeb((await client.results.download(scanId, query)) as import('node:stream/web').ReadableStream);
+    const source = Readable.fromWeb((await client.results.download(scanId, query)) as WebReadableStream);
     if (options.out !== undefined) {
       const selected = query.filters!.length > 0 || query.status !== undefined || query.region !== undefined;
       await saveTo(options.out, source, options.format ?? 'csv', async () => (selected ? undefined : (await client.scans.get(scanId)).pointsDone));

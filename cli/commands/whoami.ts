@@ -6,6 +6,7 @@ import { printFields } from '../table.ts';
 import { count } from '../terminal.ts';
 
 const day = (iso: string): string => iso.slice(0, 10);
+const SOURCES = { env: 'ROLLWAY_TOKEN', file: 'the stored credential', none: 'no credential' } as const;
 
 export const whoami = new Command('whoami')
   .description('who the server thinks you are: user, role, groups, quota left and the credential in use')
@@ -25,7 +26,7 @@ export const whoami = new Command('whoami')
       ['role', me.user.role],
       ['groups', me.groups.map((g) => g.name).join(', ') || '—'],
       ['quota', q === null ? 'none (collaborators cannot submit)' : `${count(q.remainingPoints)} of ${count(q.monthlyPoints)} points left this month (resets ${day(q.resetsAt)}); ${q.running}/${q.maxRunning} scans running`],
-      ['signed in', `${how} until ${me.auth.expiresAt.slice(0, 16).replace('T', ' ')} UTC, from ${credential.source === 'env' ? 'ROLLWAY_TOKEN' : 'the stored credential'}`],
+      ['signed in', `${how} until ${me.auth.expiresAt.slice(0, 16).replace('T', ' ')} UTC, from ${SOURCES[credential.source]}`],
       ['server', client.url],
     ]);
   });

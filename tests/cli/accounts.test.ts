@@ -163,6 +163,24 @@ describe('rollway tokens', () => {
   });
 });
 
+describe('rollway submit --group', () => {
+  it('shares a scan with a group of the submitter, and refuses one they are not in (exit 2)', async () => {
+    const group = await call(server.url, 'POST', '/admin/groups', { token: server.adminToken, json: { name: 'CLI team' } });
+    await call(server.url, 'POST', `/admin/groups/${group.body.id}/members`, { token: server.adminToken, json: { userId: researcher.id } });
+    const other = await call(server.url, 'POST', '/admin/groups', { token: server.adminToken, json: { name: 'Not ours' } });
+    const planFile = join(home.HOME!, 'group-plan.yaml');
+    writeFileSync(planFile, PLAN);
+    const [shared, refused] = await Promise.all([
+      rollway(['submit', planFile, '--group', String(group.body.id), '--json'], { env: home }),
+      rollway(['submit', planFile, '--group', String(other.body.id)], { env: home }),
+    ]);
+    expect(shared.code, shared.stderr).toBe(0);
+    expect(JSON.parse(shared.stdout)).toMatchObject({ group: { id: group.body.id, name: 'CLI team' }, owner: { email: RIA } });
+    expect(refused.code).toBe(2);
+    expect(refused.stderr).toMatch(new RegExp(`^rollway: groupId: you are not a member of a group with id ${other.body.id}`));
+  });
+});
+
 describe('rollway admin', () => {
   it('lists users, sets a quota by e-mail, reports usage; non-admins get exit 3', async () => {
     const admin = await signedIn(TEST_ADMIN.email, TEST_ADMIN.password);
