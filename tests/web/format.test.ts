@@ -26,5 +26,6 @@ describe('number formatting', () => {
     expect(formatDuration(null)).toBe('—');
     expect(formatRate(2345.6)).toBe('2,346 points/s');
     expect(formatRate(12.345)).toBe('12.3 points/s');
+    expect(formatRate(0)).toBe('0 points/s');
   });
 });

@@ -47,5 +47,6 @@ export function formatDuration(seconds: number | null | undefined): string {
 
 export function formatRate(pointsPerSecond: number | null | undefined): string {
   if (pointsPerSecond === null || pointsPerSecond === undefined) return '—';
+  if (pointsPerSecond === 0) return '0 points/s';
   return `${pointsPerSecond >= 100 ? Math.round(pointsPerSecond).toLocaleString('en-US') : pointsPerSecond.toPrecision(3)} points/s`;
 }
