@@ -31,6 +31,10 @@ export interface RunningServer {
 export async function startServer(config: Config, logger: Logger, options: { demo?: boolean } = {}): Promise<RunningServer> {
   // Listen first: with PORT=0 the links in mails need the port the system picked.
   const server = createServer();
+  // Longer than clients keep idle connections (undici: 4 s), so a client never reuses a
+  // connection the server is closing at that moment (an ECONNRESET seen under load).
+  server.keepAliveTimeout = 65_000;
+  server.headersTimeout = 66_000;
   server.listen(config.port, config.host);
   await new Promise<void>((resolve, reject) => server.once('listening', resolve).once('error', reject));
   const port = (server.address() as AddressInfo).port;

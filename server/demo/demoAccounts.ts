@@ -2,7 +2,7 @@ import type { Role } from '../../shared/api/accounts.ts';
 import { hashPassword } from '../auth/passwords.ts';
 import type { Actor } from '../auth/actor.ts';
 import type { Database } from '../db/client.ts';
-import { addMember, findGroupByName, findUserByEmail, groupIdsOf, insertGroup, insertUser } from '../accounts/usersRepository.ts';
+import { addMember, findGroupByName, findUserByEmail, groupIdsOf, insertGroup, insertUser, updateUser } from '../accounts/usersRepository.ts';
 
 /**
  * The invented demo scenario's people: a small research group scanning plateau and hilltop models.
@@ -23,7 +23,8 @@ export async function seedDemoAccounts(db: Database): Promise<Actor> {
       ?? (await insertUser(db, { email: account.email, name: account.name, role: account.role, passwordHash: await hashPassword(account.password) }));
     if (account.role !== 'admin') await addMember(db, group.id, user.id);
   }
-  const researcher = (await findUserByEmail(db, DEMO_ACCOUNTS[1]!.email))!;
+  // The demo queues every example at once: more than the default limit of scans running together.
+  const researcher = (await updateUser(db, (await findUserByEmail(db, DEMO_ACCOUNTS[1]!.email))!.id, { maxRunningScans: 10 }))!;
   return {
     userId: researcher.id, email: researcher.email, name: researcher.name, role: researcher.role, groupIds: await groupIdsOf(db, researcher.id),
     via: 'session', scopes: null, sessionId: null, tokenId: null, expiresAt: new Date(Date.now() + 3600_000),

@@ -41,6 +41,7 @@ export async function startResultsApp(): Promise<ResultsApp> {
   const accounts = await openAccounts(handle.db, config, await createMailer(config.mail, logger), logger);
   const app = createApp({ db: handle.db, logger, scans, events, accounts, scanFeatures: [resultsRouter(handle.db)] });
   const server = app.listen(0, '127.0.0.1');
+  server.keepAliveTimeout = 65_000; // as startServer: clients close idle connections first
   await once(server, 'listening');
   const origin = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
   const api = `${origin}/api/v1`;
