@@ -1,12 +1,12 @@
 import { mkdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { build } from 'vite';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ScanPlanInput } from '../../shared/plan/scanPlan.ts';
 import { TEST_ADMIN, TEST_ADMIN_ENV } from '../helpers/auth.ts';
 import { openBrowser, signInBrowser, type TestBrowser } from '../helpers/browser.ts';
 import { api, startTestServer, waitForScan } from '../helpers/server.ts';
+import { ensureWebBuild } from './helpers/webBuild.ts';
 
 /**
  * The plots in real Chromium against the real server serving a fresh build: a finished scan's
@@ -29,7 +29,8 @@ const submit = async (plan: ScanPlanInput) => {
 };
 
 beforeAll(async () => {
-  await build({ configFile: join(process.cwd(), 'vite.config.ts'), logLevel: 'warn' });
+  // Locked and by source digest: e2e files run in parallel and share dist/web.
+  await ensureWebBuild();
   server = await startTestServer(TEST_ADMIN_ENV);
   base = server.url;
   grid = await submit({ title: 'Plots e2e: E-model grid', potential: { family: 'e-model' }, fixed: { V0: 1 },
