@@ -23,7 +23,8 @@ function spawnServe(dataDir: string): Promise<{ child: ChildProcess; base: strin
   });
   return new Promise((resolve, reject) => {
     let out = '';
-    const timer = setTimeout(() => reject(new Error(`server did not start: ${out}`)), 30_000);
+    // Generous: a loaded 2-core machine has taken over a minute to start PGlite and the pool.
+    const timer = setTimeout(() => reject(new Error(`server did not start: ${out}`)), 120_000);
     child.stdout!.on('data', (chunk: Buffer) => {
       out += chunk.toString();
       const match = /listening on (http:\/\/127\.0\.0\.1:\d+)/.exec(out);
