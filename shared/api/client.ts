@@ -13,20 +13,8 @@ import { scanDetailSchema, scanViewSchema, TERMINAL_STATES, type ScanView, type 
  * ApiError carrying the HTTP status (0 when no answer came at all).
  */
 
-export interface ApiIssue { path: string; message: string }
-
-export class ApiError extends Error {
-  constructor(
-    readonly status: number,
-    readonly code: string,
-    message: string,
-    readonly field?: string,
-    readonly issues: readonly ApiIssue[] = [],
-  ) {
-    super(message);
-    this.name = 'ApiError';
-  }
-}
+export { ApiError, type ApiIssue } from './apiError.ts';
+import { ApiError, type ApiIssue } from './apiError.ts';
 
 export interface ClientOptions {
   /** The server, e.g. http://127.0.0.1:4600 (a trailing /api/v1 is accepted too). */

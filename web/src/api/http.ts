@@ -1,20 +1,7 @@
 import type { z } from 'zod';
 
-/** An API error as the server reports it: `{ error: { code, message, field? } }` with its HTTP status. */
-/** `issues`: every problem of an invalid plan, each with the path of its field. */
-export interface ApiIssue { path: string; message: string }
-
-export class ApiError extends Error {
-  constructor(
-    readonly status: number,
-    readonly code: string,
-    message: string,
-    readonly field?: string,
-    readonly issues: ApiIssue[] = [],
-  ) {
-    super(message);
-  }
-}
+export { ApiError, type ApiIssue } from '../../../shared/api/apiError.ts';
+import { ApiError, type ApiIssue } from '../../../shared/api/apiError.ts';
 
 export const API = '/api/v1';
 
