@@ -1,6 +1,7 @@
-import pg from 'pg';
+import type pg from 'pg';
 import PgBoss from 'pg-boss';
 import type { Logger } from 'pino';
+import { openPool } from '../db/pgPool.ts';
 import { MAX_ATTEMPTS } from './batchRunner.ts';
 
 /** One job per batch; the `batches` table holds its state, the job only says which batch to compute. */
@@ -32,8 +33,7 @@ export interface OpenBossOptions {
  * through an unhandled 'error' event, instead of the next query reconnecting.
  */
 export async function openBoss(databaseUrl: string, { logger, supervise }: OpenBossOptions): Promise<BossHandle> {
-  const pool = new pg.Pool({ connectionString: databaseUrl, max: 4, application_name: 'rollway-queue' });
-  pool.on('error', (error) => logger.warn({ err: error }, 'queue connection lost'));
+  const pool = openPool(databaseUrl, { name: 'rollway-queue', max: 4 }, (error) => logger.warn({ reason: error.message }, 'queue connection lost'));
   const boss = new PgBoss({
     db: { executeSql: (text, values) => pool.query(text, values) },
     schedule: false,

@@ -1,8 +1,9 @@
-import pg from 'pg';
+import type pg from 'pg';
 import { drizzle } from 'drizzle-orm/node-postgres';
 import { migrate } from 'drizzle-orm/node-postgres/migrator';
 import type { DatabaseHandle } from './client.ts';
 import { MIGRATIONS_FOLDER } from './client.ts';
+import { openPool } from './pgPool.ts';
 import * as schema from './schema/index.ts';
 
 // The scale-out path (issue 7): a PostgreSQL server through node-postgres, same schema and
@@ -12,10 +13,8 @@ import * as schema from './schema/index.ts';
 const MIGRATION_LOCK_KEY = 4_600_001;
 
 export async function openPostgres(databaseUrl: string): Promise<DatabaseHandle> {
-  const pool = new pg.Pool({ connectionString: databaseUrl });
-  // An idle connection the server closes (a restart) is reported here; without a listener the
-  // 'error' event would end the process. The pool drops that client and the next query reconnects.
-  pool.on('error', () => undefined);
+  // A connection the server closes (a restart) fails the statement using it; nothing else to do.
+  const pool = openPool(databaseUrl, { name: 'rollway' }, () => undefined);
   try {
     await migrateUnderLock(pool);
   } catch (error) {
