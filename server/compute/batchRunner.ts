@@ -1,6 +1,8 @@
 import { Piscina } from 'piscina';
 import { createPointSource, type PointSource } from '../../shared/plan/expandPlan.ts';
 import type { ScanPlan } from '../../shared/plan/scanPlan.ts';
+import { portablePotential } from '../../shared/physics/point/preparePoint.ts';
+import type { PortablePotential } from '../../shared/physics/potential/portable.ts';
 import type { Database } from '../db/client.ts';
 import { insertPointResults, type WriteOutcome } from '../db/resultsWriter.ts';
 import type { Batch } from '../db/schema/batches.ts';
@@ -14,10 +16,10 @@ export const MAX_ATTEMPTS = 3;
 
 interface ScanWork {
   plan: ScanPlan;
+  potential: PortablePotential;
   planHash: string;
   basedOnScanId: number | null;
-  /** Only for derived scans, whose batches are matched point by point against the source. */
-  points: PointSource | undefined;
+  points: PointSource;
 }
 
 /**
@@ -34,9 +36,11 @@ export interface BatchRunner {
 
 export async function createBatchRunner(db: Database, threads: number): Promise<BatchRunner> {
   const bundle = await buildWorkerBundle();
-  // A small young generation keeps each thread's memory low; the integrator's short-lived arrays
-  // die young either way (measured: same points/s with 8 MB as with V8's default).
-  const pool = new Piscina({ filename: bundle.url, minThreads: threads, maxThreads: threads, resourceLimits: { maxYoungGenerationSizeMb: 8 } });
+  // Small heaps keep each thread's memory low: the integrator's short-lived arrays die young
+  // either way (same points/s with 8 MB of young generation as with V8's default), and without a
+  // cap the old generation grew by ~8 MB per 10,000 points of garbage before V8 collected it.
+  // A thread holds ~12 MB (no expression compiler: tasks carry compiled code), so 32 MB is room.
+  const pool = new Piscina({ filename: bundle.url, minThreads: threads, maxThreads: threads, resourceLimits: { maxYoungGenerationSizeMb: 8, maxOldGenerationSizeMb: 32 } });
   const plans = new Map<number, ScanWork>();
 
   const planOf = async (scanId: number) => {
@@ -45,7 +49,10 @@ export async function createBatchRunner(db: Database, threads: number): Promise<
     const scan = await findScan(db, scanId);
     if (!scan) return undefined;
     const plan = scan.plan as unknown as ScanPlan;
-    const entry: ScanWork = { plan, planHash: scan.planHash, basedOnScanId: scan.basedOnScanId, points: scan.basedOnScanId === null ? undefined : createPointSource(plan) };
+    const points = createPointSource(plan);
+    // Compiled here, once per scan: the expression compiler (mathjs) stays out of the threads.
+    const potential = portablePotential(points.potential, points.parameterNames);
+    const entry: ScanWork = { plan, potential, planHash: scan.planHash, basedOnScanId: scan.basedOnScanId, points };
     plans.set(scanId, entry);
     return entry;
   };
@@ -55,11 +62,11 @@ export async function createBatchRunner(db: Database, threads: number): Promise<
       const source = await planOf(batch.scanId);
       if (!source) return undefined; // deleted while queued
       // A derived scan copies what its source already computed and computes only the rest.
-      const reuse = source.points && source.basedOnScanId !== null
+      const reuse = source.basedOnScanId !== null
         ? await reuseResults(db, source.points, batch, source.basedOnScanId)
         : { copied: [], remaining: undefined };
       const task: BatchTask = {
-        scanId: batch.scanId, plan: source.plan, planHash: source.planHash, firstIndex: batch.firstIndex, pointCount: batch.pointCount,
+        scanId: batch.scanId, plan: source.plan, potential: source.potential, planHash: source.planHash, firstIndex: batch.firstIndex, pointCount: batch.pointCount,
         ...(reuse.remaining ? { indices: reuse.remaining } : {}),
       };
       const output = task.indices?.length === 0

@@ -1,6 +1,7 @@
 import { createScorer } from '../../shared/physics/bounds/score.ts';
 import { computePoint } from '../../shared/physics/point/computePoint.ts';
-import { preparePoint, preparePotential, type PreparedPotential } from '../../shared/physics/point/preparePoint.ts';
+import { toPointInput } from '../../shared/physics/point/pointInput.ts';
+import { fromPortable, type PortablePotential, type PreparedPotential } from '../../shared/physics/potential/portable.ts';
 import { createPointSource, type PointSource } from '../../shared/plan/expandPlan.ts';
 import { PIVOT_AXIS, planBoundSet, type ScanPlan } from '../../shared/plan/scanPlan.ts';
 import type { NewPointResultRow } from '../db/schema/pointResults.ts';
@@ -11,6 +12,8 @@ export interface BatchTask {
   /** Identifies the plan so a worker compiles it once, not once per batch. */
   planHash: string;
   plan: ScanPlan;
+  /** The plan's potential compiled by the server (portablePotential): threads never load the expression compiler. */
+  potential: PortablePotential;
   firstIndex: number;
   pointCount: number;
   /** Only these point indices (a derived scan copies the others); default: the whole range. */
@@ -35,7 +38,7 @@ function compile(task: BatchTask): CompiledPlan {
   const hit = compiled.get(task.planHash);
   if (hit) return hit;
   const source = createPointSource(task.plan);
-  const entry = { source, prepared: preparePotential(source.potential, source.parameterNames), score: createScorer(planBoundSet(task.plan)) };
+  const entry = { source, prepared: fromPortable(task.potential), score: createScorer(planBoundSet(task.plan)) };
   if (compiled.size >= CACHE_LIMIT) compiled.delete(compiled.keys().next().value!);
   compiled.set(task.planHash, entry);
   return entry;
@@ -53,7 +56,7 @@ export function computeBatch(task: BatchTask): BatchOutput {
   for (const index of indices) {
     const request = source.requestAt(index);
     const t0 = performance.now();
-    const result = computePoint(preparePoint(request, prepared));
+    const result = computePoint(toPointInput(request, prepared));
     const computeMs = performance.now() - t0;
     const scored = result.status === 'ok' ? score(result) : { chi2: Number.NaN, region: null };
     rows.push({

@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto';
-import { canonicalJson } from '../../shared/plan/planHash.ts';
+import { canonicalJson } from '../../shared/plan/canonicalJson.ts';
 import type { PointRequest } from '../../shared/plan/pointRequest.ts';
 import { PHYSICS_VERSION } from '../../shared/physics/version.ts';
 

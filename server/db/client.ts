@@ -6,6 +6,7 @@ import { drizzle as drizzlePglite } from 'drizzle-orm/pglite';
 import { migrate as migratePglite } from 'drizzle-orm/pglite/migrator';
 import type { PgDatabase, PgQueryResultHKT } from 'drizzle-orm/pg-core';
 import { initClusterInChild, PGLITE_CONF } from './initCluster.ts';
+import { useBaselineWasmCompiler } from './wasmCompiler.ts';
 import * as schema from './schema/index.ts';
 
 export type Schema = typeof schema;
@@ -48,6 +49,7 @@ async function openPglite(dataDir: string | undefined): Promise<DatabaseHandle> 
     await mkdir(location, { recursive: true });
     await initClusterInChild(location);
   }
+  useBaselineWasmCompiler();
   const pglite = new PGlite(location, { postgresqlconf: PGLITE_CONF });
   await pglite.waitReady;
   const db = drizzlePglite({ client: pglite, schema, casing: 'snake_case' });

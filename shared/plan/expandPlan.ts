@@ -2,8 +2,6 @@ import { DEFAULT_TARGET_AMPLITUDE } from '../physics/bounds/boundSet.ts';
 import type { PointRequest, PotentialSpec } from './pointRequest.ts';
 import { PIVOT_AXIS, type PlanAxis, type ScanPlan } from './scanPlan.ts';
 
-export { canonicalJson, planHash } from './planHash.ts';
-
 /**
  * Lazy expansion of a validated plan: point `index` is computed from the index alone (its
  * mixed-radix digits), so a 10^6-point plan never sits in memory — only the axes' own values do

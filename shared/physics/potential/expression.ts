@@ -12,6 +12,9 @@ import { checkTree } from './syntax.ts';
 import { tidy } from './tidy.ts';
 import type { CompiledPotential, PotentialEvaluator } from './types.ts';
 
+/** A potential compiled from an expression: `code` is always there. */
+export type GeneratedPotential = CompiledPotential & { readonly code: string };
+
 /** Far above any real potential; keeps parsing and differentiation of hostile input bounded. */
 export const MAX_EXPRESSION_LENGTH = 2000;
 /** Node budgets for V' and V'' trees (a realistic potential needs a few hundred). */
@@ -95,7 +98,7 @@ export function compileExpression(
   source: string,
   parameterNames: readonly string[],
   field = 'expression',
-): CompiledPotential {
+): GeneratedPotential {
   checkParameterNames(parameterNames);
   try {
     return compile(source, parameterNames, field);
@@ -108,7 +111,7 @@ export function compileExpression(
   }
 }
 
-function compile(source: string, parameterNames: readonly string[], field: string): CompiledPotential {
+function compile(source: string, parameterNames: readonly string[], field: string): GeneratedPotential {
   const names = parameterNames.includes('V0') ? [...parameterNames] : [...parameterNames, 'V0'];
   const ctx = { parameterNames: names, field, derivative: false, maxNodes: MAX_EXPRESSION_LENGTH, maxDepth: MAX_DEPTH };
   const checked = checkTree(parseSource(source, field), ctx);
@@ -123,6 +126,7 @@ function compile(source: string, parameterNames: readonly string[], field: strin
   return {
     parameterNames: names,
     evaluate,
+    code: body,
     formula: { V: toMathNode(V).toString(), dV: toMathNode(dV).toString(), d2V: toMathNode(d2V).toString() },
   };
 }

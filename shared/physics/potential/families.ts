@@ -4,8 +4,7 @@
  * there is one code path.
  */
 import { InvalidInputError } from '../../errors.ts';
-import { compileExpression } from './expression.ts';
-import type { CompiledPotential } from './types.ts';
+import { compileExpression, type GeneratedPotential } from './expression.ts';
 
 export interface FamilyParameter {
   readonly name: string;
@@ -106,12 +105,14 @@ export const FAMILIES: readonly PotentialFamily[] = [
   },
 ];
 
-export interface CompiledFamily extends CompiledPotential {
+export interface CompiledFamily extends GeneratedPotential {
   readonly family: PotentialFamily;
   /** Default value of every parameter, for `resolveParameters`. */
   readonly defaults: Readonly<Record<string, number>>;
   /** The search interval for phi0 at these parameters (`family.fieldDomain` evaluated). */
   evaluateFieldDomain(params: Float64Array): { readonly min: number; readonly max: number };
+  /** Generated bodies of the domain bounds (each writes out[0]), for rebuilding in another thread. */
+  readonly domainCode: { readonly min: string; readonly max: string };
 }
 
 export function getFamily(id: string): PotentialFamily {
@@ -134,11 +135,13 @@ export function compileFamily(id: string): CompiledFamily {
   const names = family.parameters.map((p) => p.name);
   const potential = compileExpression(family.expression, names);
   // Domain bounds are constant in phi: compiled the same way and read from out[0].
-  const min = compileExpression(family.fieldDomain.min, names, 'fieldDomain.min').evaluate;
-  const max = compileExpression(family.fieldDomain.max, names, 'fieldDomain.max').evaluate;
+  const minBound = compileExpression(family.fieldDomain.min, names, 'fieldDomain.min');
+  const maxBound = compileExpression(family.fieldDomain.max, names, 'fieldDomain.max');
+  const [min, max] = [minBound.evaluate, maxBound.evaluate];
   const compiled: CompiledFamily = {
     ...potential,
     family,
+    domainCode: { min: minBound.code, max: maxBound.code },
     defaults: Object.fromEntries(family.parameters.map((p) => [p.name, p.default])),
     evaluateFieldDomain(params) {
       const out = new Float64Array(3);
