@@ -11,6 +11,8 @@ import pg from 'pg';
 export function openPool(databaseUrl: string, { name, max }: { name: string; max?: number }, onLost: (error: Error) => void): pg.Pool {
   const pool = new pg.Pool({ connectionString: databaseUrl, application_name: name, ...(max === undefined ? {} : { max }) });
   pool.on('connect', (client) => client.on('error', onLost));
-  pool.on('error', onLost);
+  // pg-pool re-emits an idle client's error here, after the client's own listener has reported
+  // it; a listener must exist (or the process ends), but one report is enough.
+  pool.on('error', () => undefined);
   return pool;
 }

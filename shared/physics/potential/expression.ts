@@ -12,7 +12,7 @@ import { checkTree } from './syntax.ts';
 import { tidy } from './tidy.ts';
 import type { CompiledPotential, PotentialEvaluator } from './types.ts';
 
-/** A potential compiled from an expression: `code` is always there. */
+/** A potential compiled from an expression, with the body of `evaluate` for rebuilding it in another thread. */
 export type GeneratedPotential = CompiledPotential & { readonly code: string };
 
 /** Far above any real potential; keeps parsing and differentiation of hostile input bounded. */

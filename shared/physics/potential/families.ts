@@ -109,9 +109,7 @@ export interface CompiledFamily extends GeneratedPotential {
   readonly family: PotentialFamily;
   /** Default value of every parameter, for `resolveParameters`. */
   readonly defaults: Readonly<Record<string, number>>;
-  /** The search interval for phi0 at these parameters (`family.fieldDomain` evaluated). */
-  evaluateFieldDomain(params: Float64Array): { readonly min: number; readonly max: number };
-  /** Generated bodies of the domain bounds (each writes out[0]), for rebuilding in another thread. */
+  /** Generated bodies of the search interval for phi0 (`family.fieldDomain`, each writes out[0]). */
   readonly domainCode: { readonly min: string; readonly max: string };
 }
 
@@ -137,19 +135,11 @@ export function compileFamily(id: string): CompiledFamily {
   // Domain bounds are constant in phi: compiled the same way and read from out[0].
   const minBound = compileExpression(family.fieldDomain.min, names, 'fieldDomain.min');
   const maxBound = compileExpression(family.fieldDomain.max, names, 'fieldDomain.max');
-  const [min, max] = [minBound.evaluate, maxBound.evaluate];
   const compiled: CompiledFamily = {
     ...potential,
     family,
     domainCode: { min: minBound.code, max: maxBound.code },
     defaults: Object.fromEntries(family.parameters.map((p) => [p.name, p.default])),
-    evaluateFieldDomain(params) {
-      const out = new Float64Array(3);
-      min(0, params, out);
-      const lower = out[0] ?? Number.NaN;
-      max(0, params, out);
-      return { min: lower, max: out[0] ?? Number.NaN };
-    },
   };
   cache.set(id, compiled);
   return compiled;

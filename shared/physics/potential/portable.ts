@@ -28,14 +28,14 @@ export interface PreparedPotential {
   needsEndPhi: boolean;
 }
 
-// Only bodies produced by codegen.ts reach this (PortablePotential is made by preparePotential.ts
-// from a checked tree, never from user text), so this is not evaluating what a user wrote.
+// Only bodies produced by codegen.ts reach this (PortablePotential is made by portablePotential in
+// point/preparePoint.ts from a checked tree, never from user text), so this is not evaluating what a user wrote.
 const generated = (code: string) => new Function('phi', 'p', 'out', code) as unknown as PotentialEvaluator;
 
 export function fromPortable(portable: PortablePotential): PreparedPotential {
   const potential: CompiledPotential = portable.kind === 'table'
     ? compileTabulatedPotential(portable.table)
-    : { parameterNames: portable.parameterNames, evaluate: generated(portable.code), code: portable.code, formula: portable.formula };
+    : { parameterNames: portable.parameterNames, evaluate: generated(portable.code), formula: portable.formula };
   let fieldDomain: PreparedPotential['fieldDomain'] = () => ({ ...DEFAULT_FIELD_RANGE });
   if (portable.domainCode) {
     const [min, max] = [generated(portable.domainCode.min), generated(portable.domainCode.max)];

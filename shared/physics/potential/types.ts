@@ -11,8 +11,6 @@ export interface CompiledPotential {
   readonly parameterNames: readonly string[];
   /** out[0] = V, out[1] = dV/dphi, out[2] = d2V/dphi2 at phi. */
   readonly evaluate: PotentialEvaluator;
-  /** The body of `evaluate` as codegen.ts generated it, for rebuilding it in another thread; absent for tables. */
-  readonly code?: string;
   /** Human-readable V(phi) and its derivatives, for provenance and the web app. */
   readonly formula: { readonly V: string; readonly dV: string; readonly d2V: string };
 }
