@@ -1,3 +1,4 @@
+import type { Rhs } from '../ode/integrate.ts';
 import type { PotentialEvaluator } from '../potential/types.ts';
 
 /**
@@ -8,13 +9,9 @@ import type { PotentialEvaluator } from '../potential/types.ts';
  * which eps2 and eps3 are built from (integrating (phi, phi') loses it).
  *   phi' = u - (ln V)',   u' = -(3 - eps1) u + (ln V)'' phi'.
  */
-export type BackgroundRhs = (n: number, y: number[]) => number[];
-
-export function createBackgroundRhs(evaluate: PotentialEvaluator, params: Float64Array): BackgroundRhs {
+export function createBackgroundRhs(evaluate: PotentialEvaluator, params: Float64Array): Rhs {
   const buf = new Float64Array(3);
-  // odex copies the returned values out at once, so one array serves every call.
-  const dy = [0, 0];
-  return (_n, y) => {
+  return (_n, y, dy) => {
     const phi = y[0]!;
     const u = y[1]!;
     evaluate(phi, params, buf);
@@ -24,7 +21,6 @@ export function createBackgroundRhs(evaluate: PotentialEvaluator, params: Float6
     const dphi = u - dlnV;
     dy[0] = dphi;
     dy[1] = -(3 - 0.5 * dphi * dphi) * u + d2lnV * dphi;
-    return dy;
   };
 }
 

@@ -1,7 +1,6 @@
-import type { Solver } from 'odex';
 import type { PotentialEvaluator } from '../potential/types.ts';
-import { advance, createSolver, solve } from '../ode/integrate.ts';
-import { createBackgroundRhs, fieldDerivatives, type BackgroundRhs } from './equations.ts';
+import { createIntegrator, type Integrator } from '../ode/integrate.ts';
+import { createBackgroundRhs, fieldDerivatives } from './equations.ts';
 import { locateCrossing, type EventFunction } from './locateCrossing.ts';
 
 /** Where inflation ends: at eps1 = 1, or at a field value for models that never end by themselves. */
@@ -23,8 +22,8 @@ export interface BackgroundResult {
   /** N at the end of inflation (= total e-folds from phi0); NaN unless status is ok. */
   nEnd: number;
   evaluations: number;
-  rhs: BackgroundRhs;
-  solver: Solver;
+  /** The configured solver of this run, for re-integrations inside the trajectory. */
+  integrator: Integrator;
 }
 
 export interface BackgroundOptions {
@@ -84,10 +83,10 @@ export function integrateBackground(
 ): BackgroundResult {
   const rhs = createBackgroundRhs(evaluate, params);
   const tolerances = { rtol: backgroundTolerances(options.rtol), atol: options.atol };
-  const solver = createSolver(2, tolerances);
+  const integrator = createIntegrator(rhs, 2, tolerances);
   const trajectory: Trajectory = { n: [0], phi: [phi0], u: [0] };
   const fail = (status: BackgroundStatus, reason: string, evaluations = 0): BackgroundResult =>
-    ({ status, reason, trajectory, nEnd: Number.NaN, evaluations, rhs, solver });
+    ({ status, reason, trajectory, nEnd: Number.NaN, evaluations, integrator });
 
   const buf = new Float64Array(3);
   evaluate(phi0, params, buf);
@@ -123,7 +122,7 @@ export function integrateBackground(
     trajectory.u.push(u);
     return event.valueAt(phi, u - buf[1]! / buf[0]!) < 0;
   };
-  let run = solve(solver, rhs, 0, [phi0, 0], options.maxEfolds, observe);
+  let run = integrator.solve(0, [phi0, 0], options.maxEfolds, observe);
   let evaluations = run.evaluations;
   // odex accepts a step whose error estimate is NaN, so one long explicit step can land past
   // the end of inflation on a singular or vanishing V. Redo the stretch from the last good
@@ -133,8 +132,8 @@ export function integrateBackground(
     const lastStep = last > 0 ? trajectory.n[last]! - trajectory.n[last - 1]! : 1e-2;
     start = trajectory.n[last]!;
     problem = undefined;
-    const shortSteps = createSolver(2, { ...tolerances, maxStepSize: lastStep / 8 ** retry });
-    run = solve(shortSteps, rhs, start, [trajectory.phi[last]!, trajectory.u[last]!], options.maxEfolds, observe);
+    const shortSteps = createIntegrator(rhs, 2, { ...tolerances, maxStepSize: lastStep / 8 ** retry });
+    run = shortSteps.solve(start, [trajectory.phi[last]!, trajectory.u[last]!], options.maxEfolds, observe);
     evaluations += run.evaluations;
   }
   if (problem) return fail(problem.status, problem.reason, evaluations);
@@ -146,7 +145,7 @@ export function integrateBackground(
   // The crossing lies between the last two accepted steps: replace the overshooting last step
   // by the located end point.
   const last = trajectory.n.length - 1;
-  const crossing = locateCrossing(solver, rhs, event, trajectory.n[last - 1]!, [trajectory.phi[last - 1]!, trajectory.u[last - 1]!],
+  const crossing = locateCrossing(integrator, event, trajectory.n[last - 1]!, [trajectory.phi[last - 1]!, trajectory.u[last - 1]!],
     trajectory.n[last]!, [trajectory.phi[last]!, trajectory.u[last]!]);
   trajectory.n[last] = crossing.x;
   trajectory.phi[last] = crossing.y[0]!;
@@ -157,8 +156,7 @@ export function integrateBackground(
     trajectory,
     nEnd: crossing.x,
     evaluations: evaluations + crossing.evaluations,
-    rhs,
-    solver,
+    integrator,
   };
 }
 
@@ -167,6 +165,6 @@ export function stateAt(result: BackgroundResult, n: number): { y: number[]; eva
   const { trajectory } = result;
   let i = trajectory.n.length - 1;
   while (i > 0 && trajectory.n[i]! > n) i--;
-  const run = advance(result.solver, result.rhs, trajectory.n[i]!, [trajectory.phi[i]!, trajectory.u[i]!], n);
+  const run = result.integrator.advance(trajectory.n[i]!, [trajectory.phi[i]!, trajectory.u[i]!], n);
   return { y: run.y, evaluations: run.evaluations };
 }

@@ -1,5 +1,4 @@
-import type { Solver } from 'odex';
-import { advance, type Rhs } from '../ode/integrate.ts';
+import type { Integrator } from '../ode/integrate.ts';
 
 /**
  * An end condition g(phi, u), negative before the event and zero at it: g and its first two
@@ -37,8 +36,7 @@ function quinticHermite(a: readonly number[], b: readonly number[], s: number): 
  * two) is what counts.
  */
 export function locateCrossing(
-  solver: Solver,
-  f: Rhs,
+  integrator: Integrator,
   g: EventFunction,
   x0: number,
   y0: number[],
@@ -61,7 +59,7 @@ export function locateCrossing(
   let yFrom = y0;
   let x = x0 + 0.5 * (lo + hi) * h;
   for (let i = 0; i < MAX_NEWTON; i++) {
-    const run = advance(solver, f, xFrom, yFrom, x);
+    const run = integrator.advance(xFrom, yFrom, x);
     evaluations += run.evaluations;
     xFrom = x;
     yFrom = run.y;
@@ -69,7 +67,8 @@ export function locateCrossing(
     const step = -value / slope;
     if (!Number.isFinite(step)) break;
     if (Math.abs(step) < TAYLOR_LIMIT) {
-      const dy = f(xFrom, yFrom);
+      const dy = [0, 0];
+      integrator.rhs(xFrom, yFrom, dy);
       yFrom = [yFrom[0]! + step * dy[0]!, yFrom[1]! + step * dy[1]!];
       xFrom += step;
       evaluations += 1;

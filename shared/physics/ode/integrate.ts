@@ -1,14 +1,12 @@
-import { Solver as OdexSolver, type Solver } from 'odex';
-
-// odex's Outcome enum; Node cannot see it as a named export of the CommonJS module.
-const Outcome = { Converged: 0, EarlyReturn: 2 } as const;
+import { Solver } from 'odex';
 
 /**
- * Thin layer over odex: one configured solver per system size, reused across calls (it holds
- * settings only, no state between solves), and a plain "advance y from x0 to x1" for the short
- * re-integrations that replace dense output (measured ~150x slower in odex).
+ * Thin layer over odex: one configured solver per right-hand side, and a plain "advance y from
+ * x0 to x1" for the short re-integrations that replace dense output (measured ~150x slower in
+ * odex). The right-hand side writes into odex's own derivative array (odex's `rawFunction`
+ * mode): no array is allocated or copied per evaluation.
  */
-export type Rhs = (x: number, y: number[]) => number[];
+export type Rhs = (x: number, y: readonly number[], dy: number[]) => void;
 export type StepObserver = (x: number, y: number[]) => boolean;
 
 export interface SolverSettings {
@@ -20,19 +18,6 @@ export interface SolverSettings {
   sequence?: number;
 }
 
-export function createSolver(dimension: number, settings: SolverSettings): Solver {
-  const solver = new OdexSolver(dimension);
-  solver.relativeTolerance = settings.rtol;
-  solver.absoluteTolerance = settings.atol;
-  solver.maxSteps = settings.maxSteps ?? 100_000;
-  solver.initialStepSize = 1e-2;
-  solver.denseOutput = false;
-  if (settings.maxStepSize) solver.maxStepSize = settings.maxStepSize;
-  if (settings.columns) (solver as any).maxExtrapolationColumns = settings.columns;
-  if (settings.sequence) (solver as any).stepSizeSequence = settings.sequence;
-  return solver;
-}
-
 export interface SolveResult {
   /** Last accepted point (the solver's end point, or where the observer stopped it). */
   x: number;
@@ -42,26 +27,55 @@ export interface SolveResult {
   evaluations: number;
 }
 
-/** Integrates from x0 to x1, calling `observe` at every accepted step (return false to stop). */
-export function solve(solver: Solver, f: Rhs, x0: number, y0: number[], x1: number, observe?: StepObserver): SolveResult {
-  let lastX = x0;
-  let lastY = y0;
-  const result = solver.solve(f, x0, y0, x1, (_nr, _xOld, x, y) => {
-    lastX = x;
-    lastY = y;
-    return observe ? observe(x, y) : true;
-  });
-  return {
-    x: result.outcome === Outcome.Converged ? x1 : lastX,
-    y: result.outcome === Outcome.Converged ? result.y : lastY,
-    converged: result.outcome === Outcome.Converged,
-    stoppedByObserver: result.outcome === Outcome.EarlyReturn,
-    evaluations: result.nEval,
-  };
+export interface Integrator {
+  readonly rhs: Rhs;
+  /** Integrates from x0 to x1, calling `observe` at every accepted step (return false to stop). */
+  solve(x0: number, y0: readonly number[], x1: number, observe?: StepObserver): SolveResult;
+  /** y(x1) from y(x0) = y0; exact copy when the two points coincide. */
+  advance(x0: number, y0: readonly number[], x1: number): SolveResult;
 }
 
-/** y(x1) from y(x0) = y0; exact copy when the two points coincide. */
-export function advance(solver: Solver, f: Rhs, x0: number, y0: number[], x1: number): SolveResult {
-  if (x1 === x0) return { x: x0, y: y0.slice(), converged: true, stoppedByObserver: false, evaluations: 0 };
-  return solve(solver, f, x0, y0, x1);
+export function createIntegrator(rhs: Rhs, dimension: number, settings: SolverSettings): Integrator {
+  const solver = new Solver(rhs, dimension, {
+    rawFunction: true,
+    denseOutput: false,
+    relativeTolerance: settings.rtol,
+    absoluteTolerance: settings.atol,
+    maxSteps: settings.maxSteps ?? 100_000,
+    initialStepSize: 1e-2,
+    ...(settings.maxStepSize ? { maxStepSize: settings.maxStepSize } : {}),
+    ...(settings.columns ? { maxExtrapolationColumns: settings.columns } : {}),
+    ...(settings.sequence ? { stepSizeSequence: settings.sequence } : {}),
+  });
+
+  const solve = (x0: number, y0: readonly number[], x1: number, observe?: StepObserver): SolveResult => {
+    // odex counts evaluations over the solver's life; a run's share is the difference.
+    const evaluationsBefore = solver.nEval;
+    let x = x0;
+    let y = y0.slice();
+    let stoppedByObserver = false;
+    let converged = false;
+    try {
+      for (const segment of solver.solutionSegments(x0, y, x1)) {
+        x = segment.x1;
+        y = segment.y;
+        if (observe && !observe(x, y)) {
+          stoppedByObserver = true;
+          break;
+        }
+      }
+      converged = !stoppedByObserver;
+    } catch (error) {
+      // odex throws when it runs out of steps; that is an outcome here, not an exception.
+      if (!(error instanceof Error && error.message.startsWith('maximum allowed steps exceeded'))) throw error;
+    }
+    return { x: converged ? x1 : x, y, converged, stoppedByObserver, evaluations: solver.nEval - evaluationsBefore };
+  };
+
+  return {
+    rhs,
+    solve,
+    advance: (x0, y0, x1) =>
+      x1 === x0 ? { x: x0, y: y0.slice(), converged: true, stoppedByObserver: false, evaluations: 0 } : solve(x0, y0, x1),
+  };
 }

@@ -1,27 +1,26 @@
-// Type declarations for the odex package (it ships TypeScript source but no .d.ts).
+// Type declarations for the part of the odex package used here (it ships TypeScript source but no .d.ts).
 declare module 'odex' {
-  export type Derivative = (x: number, y: number[]) => number[];
-  export type OutputFunction = (nr: number, xOld: number, x: number, y: number[]) => boolean | void;
-  export enum Outcome {
-    Converged = 0,
-    MaxStepsExceeded = 1,
-    EarlyReturn = 2,
-  }
-  export class Solver {
-    constructor(n: number);
-    n: number;
+  export type Derivative = (x: number, y: number[], yp: number[]) => number[] | void;
+  export interface Options {
     maxSteps: number;
     initialStepSize: number;
     maxStepSize: number;
+    maxExtrapolationColumns: number;
+    stepSizeSequence: number;
     denseOutput: boolean;
     relativeTolerance: number | number[];
     absoluteTolerance: number | number[];
-    solve(
-      f: Derivative,
-      x: number,
-      y0: number[],
-      xEnd: number,
-      solOut?: OutputFunction,
-    ): { y: number[]; outcome: Outcome; nStep: number; xEnd: number; nAccept: number; nReject: number; nEval: number };
+    rawFunction: boolean;
+  }
+  export interface SolutionSegment {
+    x0: number;
+    x1: number;
+    y: number[];
+  }
+  export class Solver {
+    constructor(f: Derivative, n: number, options?: Partial<Options>);
+    /** Right-hand-side evaluations over the solver's life (not reset between solves). */
+    readonly nEval: number;
+    solutionSegments(x: number, y0: number[], xEnd?: number): Generator<SolutionSegment, undefined>;
   }
 }

@@ -1,6 +1,6 @@
 import { flowState } from '../background/equations.ts';
 import { stateAt, type BackgroundResult } from '../background/integrateBackground.ts';
-import { advance, createSolver } from '../ode/integrate.ts';
+import { createIntegrator } from '../ode/integrate.ts';
 import type { PivotState } from '../point/pivotState.ts';
 import type { PointInput } from '../point/types.ts';
 import { adiabaticVacuum, createModeRhs, MODE_DIMENSION } from './modeEquations.ts';
@@ -48,9 +48,9 @@ function modePower(input: PointInput, background: BackgroundResult, pivot: Pivot
 
   const rhs = createModeRhs(input.evaluate, input.params, k, nPivotAbs);
   const atol = [precision.atol, precision.atol, ...new Array<number>(8).fill(precision.rtol * 1e-3)];
-  const solver = createSolver(MODE_DIMENSION, { rtol: precision.rtol, atol });
+  const integrator = createIntegrator(rhs, MODE_DIMENSION, { rtol: precision.rtol, atol });
   const y0 = [start.y[0]!, start.y[1]!, ...adiabaticVacuum(flow, Math.max(nStart, 0), nPivotAbs, k, hubblePivot)];
-  const run = advance(solver, rhs, Math.max(nStart, 0), y0, nStop);
+  const run = integrator.advance(Math.max(nStart, 0), y0, nStop);
   evaluations += run.evaluations;
   if (!run.converged) return `the mode equations for k = k_* e^${s} did not converge`;
   const y = run.y;

@@ -1,5 +1,6 @@
 import type { PotentialEvaluator } from '../potential/types.ts';
 import type { FlowState } from '../background/equations.ts';
+import type { Rhs } from '../ode/integrate.ts';
 
 /**
  * Mukhanov–Sasaki equations in e-folds for one comoving wavenumber, integrated together with
@@ -12,9 +13,9 @@ import type { FlowState } from '../background/equations.ts';
  */
 export const MODE_DIMENSION = 10;
 
-export function createModeRhs(evaluate: PotentialEvaluator, params: Float64Array, k: number, nPivot: number) {
+export function createModeRhs(evaluate: PotentialEvaluator, params: Float64Array, k: number, nPivot: number): Rhs {
   const buf = new Float64Array(3);
-  return (n: number, y: number[]): number[] => {
+  return (n, y, dy) => {
     const u = y[1]!;
     evaluate(y[0]!, params, buf);
     const v = buf[0]!;
@@ -27,16 +28,16 @@ export function createModeRhs(evaluate: PotentialEvaluator, params: Float64Array
     const x2 = x * x;
     const frictionR = 3 + eps2 - eps1;
     const frictionH = 3 - eps1;
-    return [
-      dphi,
-      -(3 - eps1) * u + d2lnV * dphi,
-      y[4]!, y[5]!,
-      -frictionR * y[4]! - x2 * y[2]!,
-      -frictionR * y[5]! - x2 * y[3]!,
-      y[8]!, y[9]!,
-      -frictionH * y[8]! - x2 * y[6]!,
-      -frictionH * y[9]! - x2 * y[7]!,
-    ];
+    dy[0] = dphi;
+    dy[1] = -(3 - eps1) * u + d2lnV * dphi;
+    dy[2] = y[4]!;
+    dy[3] = y[5]!;
+    dy[4] = -frictionR * y[4]! - x2 * y[2]!;
+    dy[5] = -frictionR * y[5]! - x2 * y[3]!;
+    dy[6] = y[8]!;
+    dy[7] = y[9]!;
+    dy[8] = -frictionH * y[8]! - x2 * y[6]!;
+    dy[9] = -frictionH * y[9]! - x2 * y[7]!;
   };
 }
 
