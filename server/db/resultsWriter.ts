@@ -19,7 +19,7 @@ export interface WriteOutcome {
   pointCount: number;
 }
 
-/** 'copy' is PGlite-only; 'insert' runs on either driver. */
+/** 'copy' (binary COPY, the default) and 'insert' (one JSON parameter) run on either engine. */
 export type WriteMethod = 'copy' | 'insert';
 
 const STAGING = 'point_results_incoming';
@@ -43,22 +43,19 @@ export async function insertPointResults(
   for (const row of rows) {
     if (row.scanId !== batch.scanId) throw new Error(`point ${row.pointIndex} belongs to scan ${row.scanId}, not to batch ${batch.id} of scan ${batch.scanId}`);
   }
-  const pglite = pgliteOf(db);
-  const method = options.method ?? (pglite ? 'copy' : 'insert');
-  if (method === 'copy') {
-    if (!pglite) throw new Error("the 'copy' write method needs the embedded PGlite database");
-    return copyBatch(pglite, batch, rows);
-  }
-  return insertBatch(db, batch, rows);
-}
-
-/** drizzle keeps the driver's client on the database object; only PGlite has the /dev/blob COPY. */
-function pgliteOf(db: Database): PGlite | undefined {
+  if ((options.method ?? 'copy') === 'insert') return insertBatch(db, batch, rows);
+  // drizzle keeps the driver's client on the database object: PGlite, or a node-postgres pool.
   const client = (db as { $client?: unknown }).$client;
-  return client instanceof PGlite ? client : undefined;
+  if (client instanceof PGlite) return copyBatch(client, batch, rows);
+  const { copyAndSettle, isPgPool } = await import('./pgCopy.ts');
+  if (!isPgPool(client)) throw new Error("the 'copy' write method needs PGlite or a node-postgres pool");
+  const settle = dialect.sqlToQuery(storeAndSettle(batch, sql.raw(STAGING)));
+  const stream = encodeCopyBinary(RESULT_COLUMNS, rows as readonly Record<string, unknown>[]);
+  const staging = { name: STAGING, like: 'point_results', columns: RESULT_COLUMN_LIST };
+  return copyAndSettle(client, staging, stream, settle, (result: OutcomeRow[]) => outcomeOf(batch, result));
 }
 
-/** Portable path: the whole batch travels as one JSON parameter of one INSERT … SELECT. */
+/** The 'insert' method: the whole batch travels as one JSON parameter of one INSERT … SELECT. */
 async function insertBatch(db: Database, batch: BatchRef, rows: readonly NewPointResultRow[]): Promise<WriteOutcome> {
   const json = JSON.stringify(rows.map(toSqlNames)); // JSON.stringify turns NaN and ±Infinity into null
   const source = sql`json_populate_recordset(null::point_results, ${json}::json)`;
@@ -69,7 +66,7 @@ async function insertBatch(db: Database, batch: BatchRef, rows: readonly NewPoin
   });
 }
 
-/** Embedded path: binary COPY into a session-local staging table, then the same INSERT … SELECT. */
+/** Binary COPY into a session-local staging table, then the same INSERT … SELECT (PGlite reads it from /dev/blob). */
 async function copyBatch(pglite: PGlite, batch: BatchRef, rows: readonly NewPointResultRow[]): Promise<WriteOutcome> {
   await stagingTable(pglite);
   const blob = new Blob([encodeCopyBinary(RESULT_COLUMNS, rows as readonly Record<string, unknown>[])]);

@@ -3,14 +3,22 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openDatabase, type DatabaseHandle } from '../../../server/db/client.ts';
 import { insertPointResults, type WriteMethod } from '../../../server/db/resultsWriter.ts';
 import { batches, pointResults, scans, type NewPointResultRow } from '../../../server/db/schema/index.ts';
+import { startPostgres, type TestPostgres } from '../../helpers/postgres.ts';
 import { failedRow, resultRow, seedScan } from './fixtures.ts';
 
-// One database for the file (opening PGlite costs seconds); every test works in its own scan.
-let handle: DatabaseHandle;
+// One database per engine for the file (opening one costs seconds); every test works in its own
+// scan. PGlite is the embedded default, a real PostgreSQL server the scale-out path.
+const engines: Record<'pglite' | 'postgres', DatabaseHandle> = {} as never;
+let postgres: TestPostgres;
 beforeAll(async () => {
-  handle = await openDatabase();
+  postgres = await startPostgres();
+  [engines.pglite, engines.postgres] = await Promise.all([openDatabase(), openDatabase({ databaseUrl: postgres.url })]);
 }, 60_000);
-afterAll(async () => handle.close());
+afterAll(async () => {
+  await Promise.all(Object.values(engines).map((h) => h.close()));
+  await postgres.destroy();
+});
+let handle: DatabaseHandle;
 
 const nonFiniteToNull = (row: NewPointResultRow) =>
   Object.fromEntries(Object.entries(row).map(([k, v]) => [k, typeof v === 'number' && !Number.isFinite(v) ? null : v]));
@@ -18,8 +26,13 @@ const nonFiniteToNull = (row: NewPointResultRow) =>
 const selectResults = (scanId: number) =>
   handle.db.select().from(pointResults).where(eq(pointResults.scanId, scanId)).orderBy(pointResults.pointIndex);
 
-// Both writers run on PGlite: 'copy' is the embedded default, 'insert' the PostgreSQL-server path.
-describe.each<WriteMethod>(['copy', 'insert'])('insertPointResults via %s', (method) => {
+// Both writers on both engines: 'copy' (binary COPY, the default) and 'insert' (one JSON parameter).
+const cases = (['pglite', 'postgres'] as const).flatMap((engine) => (['copy', 'insert'] as const).map((method): [string, WriteMethod] => [engine, method]));
+describe.each(cases)('insertPointResults on %s via %s', (engine, method) => {
+  beforeAll(() => {
+    handle = engines[engine as keyof typeof engines];
+  });
+
   it('round-trips every column bit for bit, storing NaN and ±Infinity as NULL', async () => {
     const { scan, batches: [batch] } = await seedScan(handle.db, 3, 3);
     const rows = [resultRow(scan.id, 0), failedRow(scan.id, 1), resultRow(scan.id, 2, { params: { 'mu²': 5e-324, q: 1e308 }, reason: 'quote " comma , ü' })];
@@ -78,6 +91,10 @@ describe.each<WriteMethod>(['copy', 'insert'])('insertPointResults via %s', (met
 });
 
 describe('insertPointResults', () => {
+  beforeAll(() => {
+    handle = engines.pglite;
+  });
+
   it('writes a 1000-point batch in one call and sorts NULL observables last', async () => {
     const { scan, batches: [batch] } = await seedScan(handle.db, 1000, 1000);
     const rows = Array.from({ length: 1000 }, (_, i) => (i % 10 === 0 ? failedRow(scan.id, i) : resultRow(scan.id, i)));
@@ -88,10 +105,10 @@ describe('insertPointResults', () => {
     expect(top.at(-2)!.ns).not.toBeNull();
   });
 
-  it('refuses the copy method on a database that is not PGlite', async () => {
+  it('refuses the copy method on a database that is neither PGlite nor a node-postgres pool', async () => {
     const { batches: [batch] } = await seedScan(handle.db, 1, 1);
-    const notPglite = Object.create(handle.db, { $client: { value: {} } }) as typeof handle.db;
-    await expect(insertPointResults(notPglite, batch!, [], { method: 'copy' })).rejects.toThrow(/needs the embedded PGlite/);
+    const neither = Object.create(handle.db, { $client: { value: {} } }) as typeof handle.db;
+    await expect(insertPointResults(neither, batch!, [], { method: 'copy' })).rejects.toThrow(/needs PGlite or a node-postgres pool/);
   });
 
   it('deletes a scan’s batches and results with the scan', async () => {
