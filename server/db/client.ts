@@ -27,6 +27,12 @@ export interface OpenDatabaseOptions {
   databaseUrl?: string;
 }
 
+/** drizzle keeps the driver's client on the database object: the PGlite engine for PGlite-only fast paths. */
+export function pgliteOf(db: Database): PGlite | undefined {
+  const client = (db as { $client?: unknown }).$client;
+  return client instanceof PGlite ? client : undefined;
+}
+
 // Resolved from this module, not the cwd, so the CLI and tests can start from any directory.
 export const MIGRATIONS_FOLDER = fileURLToPath(new URL('../drizzle/', import.meta.url));
 

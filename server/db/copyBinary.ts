@@ -1,4 +1,4 @@
-import type { ResultColumn } from './resultColumns.ts';
+import type { ColumnKind, ResultColumn } from './resultColumns.ts';
 
 // PostgreSQL's binary COPY format (docs: "COPY", section "Binary Format"). Binary rather than
 // CSV because PGlite's WebAssembly float8 parser costs ~2 µs a value: CSV and JSON inputs top
@@ -79,4 +79,42 @@ export function encodeCopyBinary(columns: readonly ResultColumn[], rows: readonl
   b.view.setInt16(b.at, -1);
   b.at += 2;
   return b.bytes.subarray(0, b.at);
+}
+
+const utf8Decoder = new TextDecoder();
+
+/**
+ * Decodes a binary COPY stream whose columns have the given kinds, in that order: one array of
+ * values per row, NULL as null. The inverse of encodeCopyBinary (jsonb comes back parsed).
+ */
+export function decodeCopyBinary(bytes: Uint8Array, kinds: readonly ColumnKind[]): unknown[][] {
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  for (let i = 0; i < SIGNATURE.length; i++) {
+    if (bytes[i] !== SIGNATURE[i]) throw new Error('not a binary COPY stream');
+  }
+  let at = HEADER_BYTES + view.getInt32(SIGNATURE.length + 4); // skip the header extension
+  const rows: unknown[][] = [];
+  for (;;) {
+    const fields = view.getInt16(at);
+    at += 2;
+    if (fields === -1) return rows;
+    if (fields !== kinds.length) throw new Error(`binary COPY row with ${fields} fields, ${kinds.length} expected`);
+    const row = new Array<unknown>(fields);
+    for (let f = 0; f < fields; f++) {
+      const length = view.getInt32(at);
+      at += 4;
+      if (length === -1) {
+        row[f] = null;
+        continue;
+      }
+      switch (kinds[f]!) {
+        case 'float8': row[f] = view.getFloat64(at); break;
+        case 'int4': row[f] = view.getInt32(at); break;
+        case 'text': row[f] = utf8Decoder.decode(bytes.subarray(at, at + length)); break;
+        case 'jsonb': row[f] = JSON.parse(utf8Decoder.decode(bytes.subarray(at + 1, at + length))); break; // after the version byte
+      }
+      at += length;
+    }
+    rows.push(row);
+  }
 }

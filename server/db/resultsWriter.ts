@@ -1,7 +1,7 @@
-import { PGlite } from '@electric-sql/pglite';
+import type { PGlite } from '@electric-sql/pglite';
 import { sql, type SQL } from 'drizzle-orm';
 import { PgDialect } from 'drizzle-orm/pg-core';
-import type { Database } from './client.ts';
+import { pgliteOf, type Database } from './client.ts';
 import { encodeCopyBinary } from './copyBinary.ts';
 import { RESULT_COLUMN_LIST, RESULT_COLUMNS } from './resultColumns.ts';
 import type { Batch } from './schema/batches.ts';
@@ -44,9 +44,9 @@ export async function insertPointResults(
     if (row.scanId !== batch.scanId) throw new Error(`point ${row.pointIndex} belongs to scan ${row.scanId}, not to batch ${batch.id} of scan ${batch.scanId}`);
   }
   if ((options.method ?? 'copy') === 'insert') return insertBatch(db, batch, rows);
-  // drizzle keeps the driver's client on the database object: PGlite, or a node-postgres pool.
+  const pglite = pgliteOf(db);
+  if (pglite) return copyBatch(pglite, batch, rows);
   const client = (db as { $client?: unknown }).$client;
-  if (client instanceof PGlite) return copyBatch(client, batch, rows);
   const { copyAndSettle, isPgPool } = await import('./pgCopy.ts');
   if (!isPgPool(client)) throw new Error("the 'copy' write method needs PGlite or a node-postgres pool");
   const settle = dialect.sqlToQuery(storeAndSettle(batch, sql.raw(STAGING)));
