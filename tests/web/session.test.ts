@@ -81,6 +81,33 @@ describe('session store', () => {
     expect(session.status).toBe('signedIn');
   });
 
+  it('reads the new session after signing in even while an older check is still on its way', async () => {
+    // The first check leaves before the sign-in and answers after it, with the old "signed out".
+    let signedIn = false;
+    let answerFirst!: () => void;
+    const first = new Promise<void>((resolve) => (answerFirst = resolve));
+    let checks = 0;
+    serve({
+      'POST /auth/login': () => {
+        signedIn = true;
+        return json(200, { user: me('researcher').user, expiresAt: '2031-04-02T00:00:00.000Z' });
+      },
+      'GET /auth/me': async () => {
+        const before = !signedIn;
+        if (++checks === 1) await first;
+        return before ? json(401, { error: { code: 'unauthenticated', message: 'sign in' } }) : json(200, me('researcher'));
+      },
+    });
+    const session = useSessionStore();
+    const early = session.load();
+    const signing = session.signIn('iris@example.org', 'correct horse');
+    await new Promise((r) => setTimeout(r, 10));
+    answerFirst();
+    await Promise.all([early, signing]);
+    expect(session.status).toBe('signedIn');
+    expect(checks).toBe(2);
+  });
+
   it('keeps the user signed out after a refused sign-in', async () => {
     serve({ 'POST /auth/login': () => json(401, { error: { code: 'bad_credentials', message: 'no' } }) });
     const session = useSessionStore();

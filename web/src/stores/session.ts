@@ -38,11 +38,19 @@ export const useSessionStore = defineStore('session', () => {
     }
   }
 
-  /** Checks the session once (concurrent callers share the request); `force` checks again. */
+  /**
+   * Checks the session once (concurrent callers share the request); `force` checks again. A
+   * check already in flight when `force` comes (after signing in) may have been sent before the
+   * session existed, so a forced load runs a new check after it instead of sharing its answer.
+   */
   function load(force = false): Promise<void> {
     if (!force && status.value !== 'unknown' && status.value !== 'error') return Promise.resolve();
-    pending ??= check().finally(() => (pending = undefined));
-    return pending;
+    if (pending && !force) return pending;
+    const run: Promise<void> = (pending ?? Promise.resolve()).then(check).finally(() => {
+      if (pending === run) pending = undefined;
+    });
+    pending = run;
+    return run;
   }
 
   async function signIn(email: string, password: string): Promise<void> {
