@@ -2,6 +2,7 @@ import { Piscina } from 'piscina';
 import { createPointSource, type PointSource } from '../../shared/plan/expandPlan.ts';
 import type { ScanPlan } from '../../shared/plan/scanPlan.ts';
 import { portablePotential } from '../../shared/physics/point/preparePoint.ts';
+import { PHYSICS_VERSION } from '../../shared/physics/version.ts';
 import type { PortablePotential } from '../../shared/physics/potential/portable.ts';
 import type { Database } from '../db/client.ts';
 import { insertPointResults, type WriteOutcome } from '../db/resultsWriter.ts';
@@ -48,6 +49,11 @@ export async function createBatchRunner(db: Database, threads: number): Promise<
     if (cached) return cached;
     const scan = await findScan(db, scanId);
     if (!scan) return undefined;
+    // A scan stored by another release (interrupted, then resumed after an upgrade) must not get
+    // rows of two physics versions under the label of one; its batches fail with this message.
+    if (scan.physicsVersion !== PHYSICS_VERSION) {
+      throw new Error(`physics version ${scan.physicsVersion} stored this scan, but this release computes with ${PHYSICS_VERSION}: clone the scan to compute it again`);
+    }
     const plan = scan.plan as unknown as ScanPlan;
     const points = createPointSource(plan);
     // Compiled here, once per scan: the expression compiler (mathjs) stays out of the threads.
