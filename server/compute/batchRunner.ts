@@ -49,10 +49,10 @@ export async function createBatchRunner(db: Database, threads: number): Promise<
     if (cached) return cached;
     const scan = await findScan(db, scanId);
     if (!scan) return undefined;
-    // A scan stored by another release (interrupted, then resumed after an upgrade) must not get
-    // rows of two physics versions under the label of one; its batches fail with this message.
+    // Numbers of another release must not land in this scan (a scan resumed after an upgrade, or
+    // a worker of another release on pg-boss): its batch fails, locally or as a failed try.
     if (scan.physicsVersion !== PHYSICS_VERSION) {
-      throw new Error(`physics version ${scan.physicsVersion} stored this scan, but this release computes with ${PHYSICS_VERSION}: clone the scan to compute it again`);
+      throw new Error(`physics version ${scan.physicsVersion} stored this scan, but this process computes with ${PHYSICS_VERSION}: run the same Rollway release on every machine, or clone the scan to compute it again with this one`);
     }
     const plan = scan.plan as unknown as ScanPlan;
     const points = createPointSource(plan);

@@ -30,10 +30,9 @@ export async function takePendingBatches(db: Database, limit: number): Promise<A
 
 /**
  * A worker takes a batch it got from the queue: undefined when there is nothing to do (already
- * done or failed, or its scan was cancelled or deleted). Moves a queued scan to running. Also
- * says which physics version stored the scan, so a worker of another release can refuse it.
+ * done or failed, or its scan was cancelled or deleted). Moves a queued scan to running.
  */
-export async function startBatch(db: Database, batchId: number, workerId: string, leaseSeconds: number): Promise<{ batch: Batch; physicsVersion: string } | undefined> {
+export async function startBatch(db: Database, batchId: number, workerId: string, leaseSeconds: number): Promise<Batch | undefined> {
   return db.transaction(async (tx) => {
     const [batch] = await tx.update(batches)
       .set({ state: 'running', workerId, attempts: sql`${batches.attempts} + 1`, startedAt: new Date(), leasedUntil: sql`now() + make_interval(secs => ${leaseSeconds})` })
@@ -43,8 +42,7 @@ export async function startBatch(db: Database, batchId: number, workerId: string
     if (!batch) return undefined;
     await tx.update(scans).set({ state: 'running', startedAt: sql`coalesce(${scans.startedAt}, now())`, updatedAt: new Date() })
       .where(and(eq(scans.id, batch.scanId), eq(scans.state, 'queued')));
-    const [scan] = await tx.select({ physicsVersion: scans.physicsVersion }).from(scans).where(eq(scans.id, batch.scanId));
-    return { batch, physicsVersion: scan!.physicsVersion };
+    return batch;
   });
 }
 

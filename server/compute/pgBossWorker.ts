@@ -1,6 +1,5 @@
 import type PgBoss from 'pg-boss';
 import type { Logger } from 'pino';
-import { PHYSICS_VERSION } from '../../shared/physics/version.ts';
 import type { Database } from '../db/client.ts';
 import type { Batch } from '../db/schema/batches.ts';
 import { startHeartbeat } from '../workers/heartbeat.ts';
@@ -63,20 +62,13 @@ export async function startPgBossWorker({ db, boss, logger, concurrency }: PgBos
       await persist(() => boss.fail(BATCH_QUEUE, job.id, { message }));
     };
 
-    const started = await persist(() => startBatch(db, job.data.batchId, heartbeat.id, job.expireInSeconds));
-    if (!started) {
+    const batch = await persist(() => startBatch(db, job.data.batchId, heartbeat.id, job.expireInSeconds));
+    if (!batch) {
       // Done elsewhere or failed (then this changes nothing), or its scan was cancelled: its points stay pending.
       await persist(() => returnBatch(db, job.data.batchId));
       return void (await complete());
     }
-    const { batch, physicsVersion } = started;
     entry.batch = batch;
-    if (physicsVersion !== PHYSICS_VERSION) {
-      // Numbers of another release must not land in this scan: a failed try, so a worker of the right release can take it.
-      const message = `physics version ${physicsVersion} stored this scan, but worker ${heartbeat.id} runs ${PHYSICS_VERSION}: run the same Rollway release on every machine`;
-      log.error({ batchId: batch.id }, message);
-      return failTry(message);
-    }
     let output: BatchOutput | undefined;
     try {
       output = await runner.compute(batch, aborter.signal);

@@ -45,12 +45,16 @@ export async function insertPointResults(
   }
   if ((options.method ?? 'copy') === 'insert') return insertBatch(db, batch, rows);
   const pglite = pgliteOf(db);
-  if (pglite) return copyBatch(pglite, batch, rows);
+  return pglite ? copyBatch(pglite, batch, rows) : copyBatchToPostgres(db, batch, rows);
+}
+
+/** Binary COPY FROM STDIN into the staging table, then the same INSERT … ON CONFLICT DO NOTHING. */
+async function copyBatchToPostgres(db: Database, batch: BatchRef, rows: readonly NewPointResultRow[]): Promise<WriteOutcome> {
   const client = (db as { $client?: unknown }).$client;
   const { copyAndSettle, isPgPool } = await import('./pgCopy.ts');
   if (!isPgPool(client)) throw new Error("the 'copy' write method needs PGlite or a node-postgres pool");
-  const settle = dialect.sqlToQuery(storeAndSettle(batch, sql.raw(STAGING)));
   const stream = encodeCopyBinary(RESULT_COLUMNS, rows as readonly Record<string, unknown>[]);
+  const settle = dialect.sqlToQuery(storeAndSettle(batch, sql.raw(STAGING)));
   const staging = { name: STAGING, like: 'point_results', columns: RESULT_COLUMN_LIST };
   return copyAndSettle(client, staging, stream, settle, (result: OutcomeRow[]) => outcomeOf(batch, result));
 }

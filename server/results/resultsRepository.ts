@@ -1,11 +1,11 @@
 import type { PGlite } from '@electric-sql/pglite';
 import { and, eq, gt, gte, inArray, isNotNull, isNull, lt, lte, or, sql, type SQL, type SQLWrapper } from 'drizzle-orm';
+import { PgDialect } from 'drizzle-orm/pg-core';
 import {
   NUMBER_COLUMNS, OBSERVABLE_COLUMNS, resultRowSchema, type ColumnRef, type Filter, type NumberColumn, type ObservableColumn, type ResultRow,
 } from '../../shared/api/results.ts';
 import type { Region } from '../../shared/physics/bounds/score.ts';
 import type { PointStatus } from '../../shared/physics/point/types.ts';
-import { PgDialect } from 'drizzle-orm/pg-core';
 import { pgliteOf, type Database } from '../db/client.ts';
 import { decodeCopyBinary } from '../db/copyBinary.ts';
 import { RESULT_COLUMNS, type ColumnKind } from '../db/resultColumns.ts';
@@ -77,7 +77,8 @@ const compareKeys = (dir: 1 | -1) => (a: PageRow, b: PageRow): number => {
 };
 
 /**
- * Sorts and limits whole rows in a subquery and builds the JSON of only those in the outer
+ * One page of rows with their keyset. On PGlite as binary COPY (copyRows, below). On a PostgreSQL
+ * server it sorts and limits whole rows in a subquery and builds the JSON of only those in the outer
  * query: in one level the planner may build the JSON of every matching row before a top-N sort
  * (measured on 200k rows without statistics: 2.5 s instead of ~0.1 s). The outer level is put back in order here,
  * since SQL does not promise that a subquery's order survives, and an outer ORDER BY would sort

@@ -25,7 +25,7 @@ it('fails a scan stored by another physics version instead of mixing rows of two
   try {
     const done = await waitForScan(core, scan.id, 30_000);
     expect(done.state).toBe('failed');
-    expect(done.error).toContain(`physics version test stored this scan, but this release computes with ${PHYSICS_VERSION}: clone the scan to compute it again`);
+    expect(done.error).toContain(`physics version test stored this scan, but this process computes with ${PHYSICS_VERSION}: run the same Rollway release on every machine, or clone the scan to compute it again with this one`);
     expect(done.pointsDone).toBe(0);
   } finally {
     await core.close();
