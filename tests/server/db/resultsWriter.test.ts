@@ -67,6 +67,18 @@ describe.each(cases)('insertPointResults on %s via %s', (engine, method) => {
     expect(stored[0]!.ns).toBe(resultRow(scan.id, 0).ns); // the first write wins
   });
 
+  it('stores a batch written by two workers at once exactly once', async () => {
+    // Two workers holding the same batch (a lease ran out while the first was still writing).
+    const { scan, batches: [batch] } = await seedScan(handle.db, 200, 200);
+    const rows = Array.from({ length: 200 }, (_, i) => (i % 7 === 0 ? failedRow(scan.id, i) : resultRow(scan.id, i)));
+    const outcomes = await Promise.all([insertPointResults(handle.db, batch!, rows, { method }), insertPointResults(handle.db, batch!, rows, { method })]);
+    expect(outcomes.map((o) => o.inserted).sort((a, b) => a - b)).toEqual([0, 200]);
+    expect(outcomes.reduce((sum, o) => sum + o.failed, 0)).toBe(29);
+    const [stored] = await handle.db.select().from(scans).where(eq(scans.id, scan.id));
+    expect(stored).toMatchObject({ pointsDone: 200, pointsFailed: 29 });
+    expect(await selectResults(scan.id)).toEqual(rows.map(nonFiniteToNull));
+  });
+
   it('rolls back and throws for a batch that is not the scan’s', async () => {
     const a = await seedScan(handle.db, 2, 2);
     const b = await seedScan(handle.db, 2, 2);
