@@ -17,7 +17,7 @@ const seconds = secondsArg >= 0 ? Number(args[secondsArg + 1]) : 3;
 
 const pointsArg = args.indexOf('--service-points');
 const servicePoints = pointsArg >= 0 ? Number(args[pointsArg + 1]) : 100_000;
-const physics = measurePhysics(seconds);
+const physics = await measurePhysics(seconds);
 const workers = availableParallelism();
 const service = servicePoints > 0 ? await measureService(servicePoints, workers) : undefined;
 const scaleoutArg = args.indexOf('--scaleout-points');

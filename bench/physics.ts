@@ -1,10 +1,13 @@
-import { execFileSync } from 'node:child_process';
+import { execFile } from 'node:child_process';
+import { promisify } from 'node:util';
 import { fileURLToPath } from 'node:url';
 import { computePoint } from '../shared/physics/point/computePoint.ts';
 import { preparePoint, preparePotential } from '../shared/physics/point/preparePoint.ts';
 import type { PointInput } from '../shared/physics/point/types.ts';
 import { pointRequestSchema, type PotentialSpec } from '../shared/plan/pointRequest.ts';
 import { callsPerCpuSecond } from './measure.ts';
+
+const execFileAsync = promisify(execFile);
 
 /** The benchmark's work: one Starobinsky point per call, N_* cycling over 64 values in [50, 60]. */
 const PIVOTS = Array.from({ length: 64 }, (_, i) => 50 + (10 * i) / 63);
@@ -45,10 +48,11 @@ function errorsAtDefault(exact: boolean): { ns: number; nEnd: number } {
   return { ns, nEnd };
 }
 
-function scipyBaseline(seconds: number): number {
+/** The scipy script in a child process (its own core); resolves with its points per CPU second. */
+async function scipyBaseline(seconds: number): Promise<number> {
   const script = fileURLToPath(new URL('./scipy_baseline.py', import.meta.url));
-  const out = execFileSync('/usr/bin/python3', [script, '--rtol', '1e-8', '--seconds', String(seconds)], { encoding: 'utf8' });
-  return (JSON.parse(out.trim().split('\n').at(-1)!) as { pointsPerSecond: number }).pointsPerSecond;
+  const { stdout } = await execFileAsync('/usr/bin/python3', [script, '--rtol', '1e-8', '--seconds', String(seconds)], { encoding: 'utf8' });
+  return (JSON.parse(stdout.trim().split('\n').at(-1)!) as { pointsPerSecond: number }).pointsPerSecond;
 }
 
 export interface PhysicsFigures {
@@ -67,11 +71,15 @@ export interface PhysicsFigures {
   fastNsPerEvaluation: number;
 }
 
-export function measurePhysics(seconds: number): PhysicsFigures {
+export async function measurePhysics(seconds: number): Promise<PhysicsFigures> {
+  // The scipy script runs on the other core while the fast path is timed on this one, so the
+  // ratio compares the two at the same moments: this machine's speed drifts by up to 2x within
+  // an hour, and Python and V8 do not always drift together.
+  const scipy = scipyBaseline(seconds);
   const fast = rate({ family: 'starobinsky' }, false, seconds);
+  const baseline = await scipy;
   const custom = rate({ expression: STAROBINSKY_EXPRESSION }, false, seconds);
   const exact = rate({ family: 'starobinsky' }, true, seconds);
-  const baseline = scipyBaseline(seconds);
   const fastErrors = errorsAtDefault(false);
   return {
     fastPointsPerSecond: fast.pointsPerSecond,
