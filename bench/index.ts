@@ -45,8 +45,8 @@ if (service) {
 }
 if (scaleout) {
   rows.push(
-    [`scale-out, ${scaleout.scaleoutPoints} points, 1 worker (points/s)`, scaleout.workers1PointsPerSecond.toFixed(0)],
-    ['  2 worker processes, one thread each (points/s)', scaleout.workers2PointsPerSecond.toFixed(0)],
+    [`scale-out, ${scaleout.scaleoutPoints} points, 1 worker (points/s)`, `${scaleout.workers1PointsPerSecond.toFixed(0)} (steal ${scaleout.workers1StealPercent.toFixed(0)}%)`],
+    ['  2 worker processes, one thread each (points/s)', `${scaleout.workers2PointsPerSecond.toFixed(0)} (steal ${scaleout.workers2StealPercent.toFixed(0)}%)`],
     ['  2 / 1 workers (target >= 1.7 on 2 cores)', scaleout.scaleoutRatio.toFixed(2)],
     [`  embedded default, same plan, ${workers} threads`, scaleout.scaleoutEmbeddedPointsPerSecond.toFixed(0)],
   );

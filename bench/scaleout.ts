@@ -5,6 +5,7 @@ import { pino } from 'pino';
 import { openEmbedded, type Embedded } from '../server/embedded.ts';
 import { startPostgres } from '../tests/helpers/postgres.ts';
 import { createDatabase, startWorker, STAROBINSKY, waitForScan, type WorkerProcess } from '../tests/scaleout/cluster.ts';
+import { cpuTicks, stealPercent } from './steal.ts';
 
 /**
  * Scale-out figures: the same fast Starobinsky scan computed by 1 and then 2 `rollway worker`
@@ -20,6 +21,14 @@ export interface ScaleoutFigures {
   /** workers2 / workers1; the target is >= 1.7 on 2 cores. */
   scaleoutRatio: number;
   scaleoutEmbeddedPointsPerSecond: number;
+  /** CPU time the hypervisor took during each run (bench/steal.ts), to read the ratio by. */
+  workers1StealPercent: number;
+  workers2StealPercent: number;
+}
+
+interface Run {
+  pointsPerSecond: number;
+  stealPercent: number;
 }
 
 /**
@@ -34,14 +43,18 @@ function benchPlan(points: number): string {
   return `${STAROBINSKY('scale-out benchmark', points / copies)}  - { name: V0, values: [${scales}] }\n`;
 }
 
-async function timedScan(core: Embedded, points: number): Promise<number> {
+async function timedScan(core: Embedded, points: number): Promise<Run> {
+  const before = cpuTicks();
   const scan = await core.scans.submit({ planText: benchPlan(points) });
   const done = await waitForScan(core, scan.id, 30 * 60_000);
   if (done.state !== 'completed') throw new Error(`benchmark scan ended ${done.state}`);
-  return points / ((Date.parse(done.finishedAt!) - Date.parse(done.startedAt!)) / 1000);
+  return {
+    pointsPerSecond: points / ((Date.parse(done.finishedAt!) - Date.parse(done.startedAt!)) / 1000),
+    stealPercent: stealPercent(before, cpuTicks()),
+  };
 }
 
-async function withWorkers(serverUrl: string, count: number, points: number): Promise<number> {
+async function withWorkers(serverUrl: string, count: number, points: number): Promise<Run> {
   const url = await createDatabase(serverUrl, `bench_${count}_workers`);
   const core = await openEmbedded({ databaseUrl: url, workers: 0, batchSize: 500, logger: pino({ level: 'warn' }) });
   const workers: WorkerProcess[] = [];
@@ -55,7 +68,7 @@ async function withWorkers(serverUrl: string, count: number, points: number): Pr
   }
 }
 
-async function embedded(points: number): Promise<number> {
+async function embedded(points: number): Promise<Run> {
   const dataDir = await mkdtemp(join(tmpdir(), 'rollway-bench-embedded-'));
   const core = await openEmbedded({ dataDir, workers: availableParallelism(), batchSize: 500, logger: pino({ level: 'warn' }) });
   try {
@@ -69,12 +82,16 @@ async function embedded(points: number): Promise<number> {
 export async function measureScaleout(points: number): Promise<ScaleoutFigures> {
   const postgres = await startPostgres();
   try {
-    const workers1PointsPerSecond = await withWorkers(postgres.url, 1, points);
-    const workers2PointsPerSecond = await withWorkers(postgres.url, 2, points);
+    const one = await withWorkers(postgres.url, 1, points);
+    const two = await withWorkers(postgres.url, 2, points);
     return {
-      scaleoutPoints: points, workers1PointsPerSecond, workers2PointsPerSecond,
-      scaleoutRatio: workers2PointsPerSecond / workers1PointsPerSecond,
-      scaleoutEmbeddedPointsPerSecond: await embedded(points),
+      scaleoutPoints: points,
+      workers1PointsPerSecond: one.pointsPerSecond,
+      workers2PointsPerSecond: two.pointsPerSecond,
+      scaleoutRatio: two.pointsPerSecond / one.pointsPerSecond,
+      scaleoutEmbeddedPointsPerSecond: (await embedded(points)).pointsPerSecond,
+      workers1StealPercent: one.stealPercent,
+      workers2StealPercent: two.stealPercent,
     };
   } finally {
     await postgres.destroy();
