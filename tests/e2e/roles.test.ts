@@ -55,7 +55,14 @@ async function signedIn(who: { email: string; password: string }): Promise<TestB
   await page.getByLabel('E-mail').fill(who.email);
   await page.getByLabel('Password').fill(who.password);
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL(`${server.url}/scans`);
+  try {
+    await page.waitForURL(`${server.url}/scans`);
+  } catch (error) {
+    // Say where the page stands: its address, what the sign-in form shows, what failed to load.
+    const shown = await page.locator('main').innerText().catch(() => '(no main)');
+    await page.screenshot({ path: join(SCREENS, `roles-not-signed-in-${who.email.split('@')[0]}.png`), fullPage: true }).catch(() => undefined);
+    throw new Error(`${who.email} not signed in: at ${page.url()}, page says ${JSON.stringify(shown)}; errors: ${browser.consoleErrors.join(' | ')}`, { cause: error });
+  }
   return browser;
 }
 
