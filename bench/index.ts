@@ -48,6 +48,8 @@ if (scaleout) {
     [`scale-out, ${scaleout.scaleoutPoints} points, 1 worker (points/s)`, `${scaleout.workers1PointsPerSecond.toFixed(0)} (steal ${scaleout.workers1StealPercent.toFixed(0)}%)`],
     ['  2 worker processes, one thread each (points/s)', `${scaleout.workers2PointsPerSecond.toFixed(0)} (steal ${scaleout.workers2StealPercent.toFixed(0)}%)`],
     ['  2 / 1 workers (target >= 1.7 on 2 cores)', scaleout.scaleoutRatio.toFixed(2)],
+    ['  worker CPU a point, 1 / 2 workers (µs)', `${scaleout.workers1CpuMicrosPerPoint.toFixed(0)} / ${scaleout.workers2CpuMicrosPerPoint.toFixed(0)}`],
+    ['  compute-thread wall time a point, 1 / 2 (µs)', `${scaleout.workers1ComputeMicrosPerPoint.toFixed(0)} / ${scaleout.workers2ComputeMicrosPerPoint.toFixed(0)}`],
     [`  embedded default, same plan, ${workers} threads`, scaleout.scaleoutEmbeddedPointsPerSecond.toFixed(0)],
   );
 }

@@ -5,7 +5,7 @@ import { pino } from 'pino';
 import { openEmbedded, type Embedded } from '../server/embedded.ts';
 import { startPostgres } from '../tests/helpers/postgres.ts';
 import { createDatabase, startWorker, STAROBINSKY, waitForScan, type WorkerProcess } from '../tests/scaleout/cluster.ts';
-import { cpuTicks, stealPercent } from './steal.ts';
+import { cpuTicks, processCpuSeconds, stealPercent } from './cpuTime.ts';
 
 /**
  * Scale-out figures: the same fast Starobinsky scan computed by 1 and then 2 `rollway worker`
@@ -24,11 +24,24 @@ export interface ScaleoutFigures {
   /** CPU time the hypervisor took during each run (bench/steal.ts), to read the ratio by. */
   workers1StealPercent: number;
   workers2StealPercent: number;
+  /**
+   * Per point: CPU of the worker processes (all their threads), and the time a point spent
+   * inside its compute thread (the rows' compute_ms, wall clock). The work is the same in both
+   * runs, so CPU that rises from 1 to 2 workers means the cores slowed each other (shared
+   * physical cores, caches); wall time that rises beyond it means the compute threads waited for
+   * a core PostgreSQL or the server had.
+   */
+  workers1CpuMicrosPerPoint: number;
+  workers2CpuMicrosPerPoint: number;
+  workers1ComputeMicrosPerPoint: number;
+  workers2ComputeMicrosPerPoint: number;
 }
 
 interface Run {
   pointsPerSecond: number;
   stealPercent: number;
+  computeMicrosPerPoint: number;
+  cpuMicrosPerPoint: number;
 }
 
 /**
@@ -43,7 +56,9 @@ function benchPlan(points: number): string {
   return `${STAROBINSKY('scale-out benchmark', points / copies)}  - { name: V0, values: [${scales}] }\n`;
 }
 
-async function timedScan(core: Embedded, points: number): Promise<Run> {
+async function timedScan(core: Embedded, points: number, workerPids: readonly number[] = []): Promise<Run> {
+  const cpu = () => workerPids.reduce((sum, pid) => sum + processCpuSeconds(pid), 0);
+  const cpuBefore = cpu();
   const before = cpuTicks();
   const scan = await core.scans.submit({ planText: benchPlan(points) });
   const done = await waitForScan(core, scan.id, 30 * 60_000);
@@ -51,6 +66,8 @@ async function timedScan(core: Embedded, points: number): Promise<Run> {
   return {
     pointsPerSecond: points / ((Date.parse(done.finishedAt!) - Date.parse(done.startedAt!)) / 1000),
     stealPercent: stealPercent(before, cpuTicks()),
+    computeMicrosPerPoint: (done.computeSeconds / points) * 1e6,
+    cpuMicrosPerPoint: ((cpu() - cpuBefore) / points) * 1e6,
   };
 }
 
@@ -60,7 +77,7 @@ async function withWorkers(serverUrl: string, count: number, points: number): Pr
   const workers: WorkerProcess[] = [];
   try {
     for (let i = 0; i < count; i++) workers.push(await startWorker(url, 1));
-    return await timedScan(core, points);
+    return await timedScan(core, points, workers.map((w) => w.child.pid!));
   } finally {
     for (const w of workers) w.child.kill('SIGTERM');
     await Promise.all(workers.map((w) => w.exited));
@@ -92,6 +109,10 @@ export async function measureScaleout(points: number): Promise<ScaleoutFigures> 
       scaleoutEmbeddedPointsPerSecond: (await embedded(points)).pointsPerSecond,
       workers1StealPercent: one.stealPercent,
       workers2StealPercent: two.stealPercent,
+      workers1CpuMicrosPerPoint: one.cpuMicrosPerPoint,
+      workers2CpuMicrosPerPoint: two.cpuMicrosPerPoint,
+      workers1ComputeMicrosPerPoint: one.computeMicrosPerPoint,
+      workers2ComputeMicrosPerPoint: two.computeMicrosPerPoint,
     };
   } finally {
     await postgres.destroy();

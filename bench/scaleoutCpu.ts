@@ -3,6 +3,7 @@ import { pino } from 'pino';
 import { openEmbedded } from '../server/embedded.ts';
 import { startPostgres } from '../tests/helpers/postgres.ts';
 import { createDatabase, startWorker, STAROBINSKY, waitForScan } from '../tests/scaleout/cluster.ts';
+import { cpuSecondsOf as cpuSeconds } from './cpuTime.ts';
 
 /**
  * Where the CPU of a scale-out scan goes, per point: PostgreSQL's processes, each worker
@@ -11,13 +12,6 @@ import { createDatabase, startWorker, STAROBINSKY, waitForScan } from '../tests/
  * and after it completes, so start-up is not counted.
  *   npx tsx --tsconfig tsconfig.base.json bench/scaleoutCpu.ts [points=100000] [workers=2] [batchSize=500]
  */
-const CLOCK_TICKS = 100; // USER_HZ on Linux
-const cpuSeconds = (statPath: string): number => {
-  const stat = readFileSync(statPath, 'utf8');
-  const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
-  return (Number(fields[11]) + Number(fields[12])) / CLOCK_TICKS; // utime + stime
-};
-
 function snapshot(workerPids: readonly number[]): Map<string, number> {
   const seconds = new Map<string, number>();
   const add = (key: string, s: number) => seconds.set(key, (seconds.get(key) ?? 0) + s);
