@@ -21,7 +21,7 @@ export interface ScaleoutFigures {
   /** workers2 / workers1; the target is >= 1.7 on 2 cores. */
   scaleoutRatio: number;
   scaleoutEmbeddedPointsPerSecond: number;
-  /** CPU time the hypervisor took during each run (bench/steal.ts), to read the ratio by. */
+  /** CPU time the hypervisor took during each run (bench/cpuTime.ts), to read the ratio by. */
   workers1StealPercent: number;
   workers2StealPercent: number;
   /**
