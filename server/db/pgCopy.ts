@@ -5,9 +5,9 @@ import { Readable } from 'node:stream';
 
 // The scale-out path's bulk write: binary COPY FROM STDIN (pg-copy-streams), then one statement
 // that settles the batch, in one transaction. Measured on PostgreSQL 15 for 500-row batches:
-// ~25 µs of server CPU a row straight into point_results, ~30 µs through a staging table, against
-// ~55 µs for the same rows as one JSON parameter (json_populate_recordset parses every double from text). Imported lazily, so
-// the embedded default never loads pg.
+// ~25 µs of server CPU a row straight into point_results, ~30 µs through a staging table,
+// against ~55 µs for the same rows as one JSON parameter (json_populate_recordset parses every
+// double from text). Imported lazily, so the embedded default never loads pg.
 
 const stagingReady = new WeakSet<pg.PoolClient>();
 
