@@ -6,6 +6,7 @@
  * one JSON object (the benchmark contract in DESIGN.md).
  */
 import { availableParallelism } from 'node:os';
+import { DESIGN_REFERENCE_POINTS_PER_SECOND } from './odexReference.ts';
 import { measurePhysics } from './physics.ts';
 import { measureScaleout } from './scaleout.ts';
 import { measureService } from './service.ts';
@@ -32,6 +33,8 @@ const rows: Array<[string, string]> = [
   ['exact spectra, starobinsky (points/s, one core)', figures.exactPointsPerSecond.toFixed(0)],
   ['scipy DOP853 script, same work, rtol 1e-8', figures.baselinePointsPerSecond.toFixed(1)],
   ['  fast path / scipy', `${figures.baselineRatio.toFixed(0)}x`],
+  [`bare odex reference run (DESIGN.md: ${DESIGN_REFERENCE_POINTS_PER_SECOND}/s)`, figures.odexReferencePointsPerSecond.toFixed(0)],
+  ['  fast path / reference (machine speed removed)', figures.fastReferenceRatio.toFixed(2)],
   ['largest |Δn_s| fast, default vs rtol 1e-12', figures.nsErrorFast.toExponential(1)],
   ['largest |Δn_s| exact, default vs rtol 1e-12', figures.nsErrorExact.toExponential(1)],
 ];

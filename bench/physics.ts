@@ -6,6 +6,7 @@ import { preparePoint, preparePotential } from '../shared/physics/point/prepareP
 import type { PointInput } from '../shared/physics/point/types.ts';
 import { pointRequestSchema, type PotentialSpec } from '../shared/plan/pointRequest.ts';
 import { callsPerCpuSecond } from './measure.ts';
+import { odexReferenceRate } from './odexReference.ts';
 
 const execFileAsync = promisify(execFile);
 
@@ -69,6 +70,9 @@ export interface PhysicsFigures {
   /** Right-hand-side evaluations per fast point, and CPU nanoseconds per evaluation (all work of a point included). */
   fastEvaluationsPerPoint: number;
   fastNsPerEvaluation: number;
+  /** DESIGN.md's bare-odex reference run on this machine now (bench/odexReference.ts), and the fast path over it. */
+  odexReferencePointsPerSecond: number;
+  fastReferenceRatio: number;
 }
 
 export async function measurePhysics(seconds: number): Promise<PhysicsFigures> {
@@ -77,6 +81,7 @@ export async function measurePhysics(seconds: number): Promise<PhysicsFigures> {
   // an hour, and Python and V8 do not always drift together.
   const scipy = scipyBaseline(seconds);
   const fast = rate({ family: 'starobinsky' }, false, seconds);
+  const reference = odexReferenceRate(seconds);
   const baseline = await scipy;
   const custom = rate({ expression: STAROBINSKY_EXPRESSION }, false, seconds);
   const exact = rate({ family: 'starobinsky' }, true, seconds);
@@ -93,5 +98,7 @@ export async function measurePhysics(seconds: number): Promise<PhysicsFigures> {
     nEndErrorFast: fastErrors.nEnd,
     fastEvaluationsPerPoint: fast.evaluationsPerPoint,
     fastNsPerEvaluation: 1e9 / (fast.pointsPerSecond * fast.evaluationsPerPoint),
+    odexReferencePointsPerSecond: reference,
+    fastReferenceRatio: fast.pointsPerSecond / reference,
   };
 }
