@@ -49,6 +49,7 @@ if (service) {
 if (scaleout) {
   rows.push(
     [`scale-out, ${scaleout.scaleoutPoints} points, 1 worker (points/s)`, `${scaleout.workers1PointsPerSecond.toFixed(0)} (steal ${scaleout.workers1StealPercent.toFixed(0)}%)`],
+    ['  1 worker before / after the 2-worker run', `${scaleout.workers1BeforePointsPerSecond.toFixed(0)} / ${scaleout.workers1AfterPointsPerSecond.toFixed(0)}`],
     ['  2 worker processes, one thread each (points/s)', `${scaleout.workers2PointsPerSecond.toFixed(0)} (steal ${scaleout.workers2StealPercent.toFixed(0)}%)`],
     ['  2 / 1 workers (target >= 1.7 on 2 cores)', scaleout.scaleoutRatio.toFixed(2)],
     ['  worker CPU a point, 1 / 2 workers (µs)', `${scaleout.workers1CpuMicrosPerPoint.toFixed(0)} / ${scaleout.workers2CpuMicrosPerPoint.toFixed(0)}`],
