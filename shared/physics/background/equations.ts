@@ -40,6 +40,9 @@ export function fieldDerivatives(evaluate: PotentialEvaluator, params: Float64Ar
   return [dphi, ddphi, dphi * ddphi * u - friction * du];
 }
 
+/** Below this, eps2 and d eps2/dN are taken as the integration's rounding noise (see flowState). */
+const FLOW_NOISE = 1e-10;
+
 /** Hubble-flow parameters and H^2 at one background state. */
 export interface FlowState {
   V: number;
@@ -47,6 +50,8 @@ export interface FlowState {
   eps1: number;
   eps2: number;
   eps3: number;
+  /** The product, d eps2/dN, which the observables use (see flowState). */
+  eps2eps3: number;
   H2: number;
 }
 
@@ -54,7 +59,10 @@ export interface FlowState {
  * eps1 = phi'^2/2, eps2 = d ln eps1/dN = 2 phi''/phi' = -2(3 - eps1) u/phi',
  * eps3 = d ln eps2/dN, from the analytic derivative of eps2 (no finite differences):
  *   eps2 eps3 = -(2/phi') [ (3 - eps1) u' - u (eps1 eps2 + (3 - eps1) eps2/2) ].
- * When u vanishes identically (power-law inflation) eps2 = 0 and eps3 is reported as 0.
+ * The observables take the product eps2 eps3 = d eps2/dN, finite where eps2 crosses zero (where
+ * the ratio eps3 is large, as it truly is). When eps2 and its derivative both vanish (power-law
+ * inflation) the hierarchy stops and eps3 is reported as 0: what the integration leaves of them
+ * there (~1e-16) is rounding noise decaying with the attractor, whose ratio comes out as ~-3.
  */
 export function flowState(
   evaluate: PotentialEvaluator,
@@ -72,6 +80,6 @@ export function flowState(
   const du = -(3 - eps1) * u + d2lnV * dphi;
   const eps2 = (-2 * (3 - eps1) * u) / dphi;
   const eps2eps3 = (-2 / dphi) * ((3 - eps1) * du - u * (eps1 * eps2 + 0.5 * (3 - eps1) * eps2));
-  const eps3 = eps2 === 0 ? 0 : eps2eps3 / eps2;
-  return { V: v, dphi, eps1, eps2, eps3, H2: v / (3 - eps1) };
+  const eps3 = Math.max(Math.abs(eps2), Math.abs(eps2eps3)) < FLOW_NOISE ? 0 : eps2eps3 / eps2;
+  return { V: v, dphi, eps1, eps2, eps3, eps2eps3, H2: v / (3 - eps1) };
 }

@@ -3,7 +3,8 @@ import { FLOW_C } from './constants.ts';
 export interface FlowParameters {
   eps1: number;
   eps2: number;
-  eps3: number;
+  /** d eps2/dN: finite where eps2 crosses zero, where eps3 = eps2eps3/eps2 is not. */
+  eps2eps3: number;
 }
 
 export interface FastObservables {
@@ -21,8 +22,7 @@ export interface FastObservables {
  *   n_t     = -2e1 - 2e1^2 - 2(C+1) e1 e2
  *   alpha_s = -2 e1 e2 - e2 e3
  */
-export function fastObservables({ eps1: e1, eps2: e2, eps3: e3 }: FlowParameters): FastObservables {
-  const e2e3 = e2 * e3;
+export function fastObservables({ eps1: e1, eps2: e2, eps2eps3: e2e3 }: FlowParameters): FastObservables {
   return {
     ns: 1 - 2 * e1 - e2 - 2 * e1 * e1 - (2 * FLOW_C + 3) * e1 * e2 - FLOW_C * e2e3,
     r: 16 * e1 * (1 + FLOW_C * e2),

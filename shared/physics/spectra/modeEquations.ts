@@ -49,7 +49,7 @@ export function createModeRhs(evaluate: PotentialEvaluator, params: Float64Array
  * Returns the scaled mode state [Re R~, Im R~, Re R~', Im R~', Re h~, Im h~, Re h~', Im h~'].
  */
 export function adiabaticVacuum(flow: FlowState, n: number, nPivot: number, k: number, hubblePivot: number): number[] {
-  const { eps1: e1, eps2: e2, eps3: e3 } = flow;
+  const { eps1: e1, eps2: e2, eps2eps3: e2e3 } = flow;
   const hubble = Math.sqrt(flow.H2);
   const a = Math.exp(n - nPivot);
   const x = k / (a * hubble);
@@ -63,7 +63,7 @@ export function adiabaticVacuum(flow: FlowState, n: number, nPivot: number, k: n
     return [amplitude, 0, amplitude * real, -amplitude * w];
   };
   const zOverA = flow.dphi;
-  const scalarMass = 2 - e1 + 1.5 * e2 + 0.25 * e2 * e2 - 0.5 * e1 * e2 + 0.5 * e2 * e3;
+  const scalarMass = 2 - e1 + 1.5 * e2 + 0.25 * e2 * e2 - 0.5 * e1 * e2 + 0.5 * e2e3;
   return [
     ...mode(scalarMass, 1 / (a * zOverA), 0.5 * e2),
     ...mode(2 - e1, 2 / a, 0),
