@@ -19,9 +19,9 @@ function axisLength(axis: Record<string, unknown>): number | undefined {
   return typeof n === 'number' && Number.isInteger(n) && n >= 1 && n <= PLAN_LIMITS.maxAxisLength ? n : undefined;
 }
 
-function checkPivotAxis(axis: Record<string, unknown>, at: string, issues: PlanIssue[]): void {
-  const bad = (v: unknown): boolean => typeof v === 'number' && Number.isFinite(v) && !(v > 0 && v <= MAX_PIVOT_EFOLDS);
-  const message = (v: unknown) => `e-folds N_* must be > 0 and at most ${MAX_PIVOT_EFOLDS}; got ${String(v)}`;
+/** Reports each value of an axis (a list's entries, a range's ends) that `allowed` refuses. */
+function checkAxisValues(axis: Record<string, unknown>, at: string, allowed: (v: number) => boolean, message: (v: number) => string, issues: PlanIssue[]): void {
+  const bad = (v: unknown): v is number => typeof v === 'number' && Number.isFinite(v) && !allowed(v);
   const spec = isRecord(axis.range) ? ['range', axis.range] as const : isRecord(axis.logRange) ? ['logRange', axis.logRange] as const : undefined;
   if (spec !== undefined) {
     for (const end of ['from', 'to']) if (bad(spec[1][end])) issues.push({ path: `${at}.${spec[0]}.${end}`, message: message(spec[1][end]) });
@@ -29,6 +29,11 @@ function checkPivotAxis(axis: Record<string, unknown>, at: string, issues: PlanI
     axis.values.forEach((v, j) => bad(v) && issues.push({ path: `${at}.values[${j}]`, message: message(v) }));
   }
 }
+
+const checkPivotAxis = (axis: Record<string, unknown>, at: string, issues: PlanIssue[]): void =>
+  checkAxisValues(axis, at, (v) => v > 0 && v <= MAX_PIVOT_EFOLDS, (v) => `e-folds N_* must be > 0 and at most ${MAX_PIVOT_EFOLDS}; got ${v}`, issues);
+
+const mustBePositive = (name: string, facts: PotentialFacts) => (v: number) => `${name} must be > 0 for ${facts.label}; got ${v}`;
 
 function checkNames(plan: Record<string, unknown>, facts: PotentialFacts | undefined, axes: readonly unknown[], issues: PlanIssue[]): number | undefined {
   const axisAt = new Map<string, number>();
@@ -48,6 +53,8 @@ function checkNames(plan: Record<string, unknown>, facts: PotentialFacts | undef
       checkPivotAxis(axis, `axes[${i}]`, issues);
     } else if (facts !== undefined && !facts.allowed.includes(name)) {
       issues.push({ path: `axes[${i}].name`, message: `"${name}" is not a parameter of ${facts.label}; allowed: ${allowedAxes}` });
+    } else if (facts?.positive.includes(name)) {
+      checkAxisValues(axis, `axes[${i}]`, (v) => v > 0, mustBePositive(name, facts), issues);
     }
   });
   // Own keys of the raw document: zod drops a "__proto__" key, this still sees and reports it.
@@ -59,6 +66,9 @@ function checkNames(plan: Record<string, unknown>, facts: PotentialFacts | undef
     else if (axis !== undefined) issues.push({ path, message: `"${name}" is also scanned by axes[${axis}]; give it in one place` });
     else if (facts !== undefined && !facts.allowed.includes(name)) {
       issues.push({ path, message: `"${name}" is not a parameter of ${facts.label}; allowed: ${facts.allowed.join(', ')}` });
+    } else if (facts?.positive.includes(name)) {
+      const value = (plan.fixed as Record<string, unknown>)[name];
+      if (typeof value === 'number' && Number.isFinite(value) && !(value > 0)) issues.push({ path, message: mustBePositive(name, facts)(value) });
     }
   }
   facts?.required.forEach((name) => {

@@ -14,6 +14,8 @@ export interface PotentialFacts {
   required: readonly string[];
   /** The family never ends inflation by itself (DESIGN.md: exponential needs an end field). */
   needsEndPhi: boolean;
+  /** Names whose values must be > 0 (a family's FamilyParameter.positive). */
+  positive: readonly string[];
 }
 
 export const isRecord = (x: unknown): x is Record<string, unknown> =>
@@ -44,7 +46,8 @@ export function checkPotential(raw: unknown, issues: PlanIssue[]): PotentialFact
       return undefined;
     }
     const names = found.parameters.map((p) => p.name);
-    return { label: `the "${family}" family`, allowed: names, required: [], needsEndPhi: found.needsEndPhi === true };
+    const positive = found.parameters.filter((p) => p.positive).map((p) => p.name);
+    return { label: `the "${family}" family`, allowed: names, required: [], needsEndPhi: found.needsEndPhi === true, positive };
   }
 
   if (typeof expression === 'string' && expression !== '') {
@@ -62,7 +65,7 @@ export function checkPotential(raw: unknown, issues: PlanIssue[]): PotentialFact
       issues.push(fromInputError(err, 'potential.expression'));
     }
     const allowed = declared.includes('V0') ? declared : [...declared, 'V0'];
-    return { label: 'the expression', allowed, required: declared.filter((n) => n !== 'V0'), needsEndPhi: false };
+    return { label: 'the expression', allowed, required: declared.filter((n) => n !== 'V0'), needsEndPhi: false, positive: [] };
   }
 
   if (typeof table === 'string' && table !== '') {
@@ -71,7 +74,7 @@ export function checkPotential(raw: unknown, issues: PlanIssue[]): PotentialFact
     } catch (err) {
       issues.push(fromInputError(err, 'potential.table'));
     }
-    return { label: 'the table', allowed: ['V0'], required: [], needsEndPhi: false };
+    return { label: 'the table', allowed: ['V0'], required: [], needsEndPhi: false, positive: [] };
   }
   return undefined;
 }

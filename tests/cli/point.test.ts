@@ -41,6 +41,7 @@ describe('rollway point: the command-line contract of DESIGN.md', () => {
       [['point', '--family', 'exponential', '--pivot-efolds', '55'], /never ends inflation by itself; give endPhi/],
       [['point', '--family', 'hilltop', '--param', 'nu=3', '--pivot-efolds', '55'], /unknown parameter "nu".*mu, q/],
       [['point', '--family', 'quadratic', '--param', 'V0', '--pivot-efolds', '55'], /not of the form name=value/],
+      [['point', '--family', 't-model', '--param', 'alpha=-1', '--pivot-efolds', '55'], /params\.alpha: must be > 0 for the "t-model" family; got -1/],
       [['point', '--expr', 'phi.constructor', '--pivot-efolds', '55'], /expression/],
       [['point', '--family', 'quadratic', '--pivot-efolds', '55', '--bogus'], /unknown option '--bogus'/],
     ];

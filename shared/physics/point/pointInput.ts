@@ -13,6 +13,12 @@ import type { PointInput } from './types.ts';
 export function toPointInput(request: PointRequest, prepared: PreparedPotential): PointInput {
   const { potential, defaults } = prepared;
   const params = resolveParameters(potential.parameterNames, defaults, request.params, 'params');
+  prepared.positive.forEach((name) => {
+    const value = params[potential.parameterNames.indexOf(name)]!;
+    if (!(value > 0)) {
+      throw new InvalidInputError(`params.${name}: must be > 0 for the "${request.potential.family}" family; got ${value}`, `params.${name}`, 'invalid_parameter');
+    }
+  });
   if (prepared.needsEndPhi && request.endPhi === undefined) {
     throw new InvalidInputError(`potential.family: "${request.potential.family}" never ends inflation by itself; give endPhi (--end-phi)`, 'endPhi', 'missing_end_phi');
   }

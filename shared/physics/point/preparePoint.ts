@@ -19,6 +19,7 @@ export function portablePotential(spec: PotentialSpec, parameterNames: readonly 
     return {
       kind: 'generated', code: family.code, parameterNames: family.parameterNames, defaults: family.defaults,
       needsEndPhi: family.family.needsEndPhi === true, formula: family.formula, domainCode: family.domainCode,
+      positive: family.positive,
     };
   }
   const common = { defaults: { V0: 1 }, needsEndPhi: false } as const;

@@ -12,6 +12,8 @@ export interface FamilyParameter {
   /** Suggested scan range. */
   readonly range: readonly [number, number];
   readonly scale: 'linear' | 'log';
+  /** Only values > 0 describe the family (a negative width, scale or power is another potential or none). */
+  readonly positive?: true;
   readonly description: string;
 }
 
@@ -30,11 +32,11 @@ export interface PotentialFamily {
 }
 
 const V0: FamilyParameter = {
-  name: 'V0', default: 1, range: [1e-16, 1], scale: 'log',
+  name: 'V0', default: 1, range: [1e-16, 1], scale: 'log', positive: true,
   description: 'overall scale of V (M_pl = 1); drops out of the background, sets A_s',
 };
 const ALPHA: FamilyParameter = {
-  name: 'alpha', default: 1, range: [0.01, 100], scale: 'log',
+  name: 'alpha', default: 1, range: [0.01, 100], scale: 'log', positive: true,
   description: 'alpha-attractor parameter (curvature of the field space is -2/(3 alpha))',
 };
 const LINDE_1983 = 'A. D. Linde, "Chaotic inflation", Phys. Lett. B 129, 177 (1983)';
@@ -53,7 +55,7 @@ export const FAMILIES: readonly PotentialFamily[] = [
   },
   {
     id: 'monomial', label: 'Monomial', expression: 'V0 * phi^p',
-    parameters: [V0, { name: 'p', default: 2, range: [0.5, 6], scale: 'linear', description: 'power of phi' }],
+    parameters: [V0, { name: 'p', default: 2, range: [0.5, 6], scale: 'linear', positive: true, description: 'power of phi' }],
     fieldDomain: { min: '0', max: '100' },
     description: 'Chaotic inflation with a power law, V0 phi^p.', reference: LINDE_1983,
   },
@@ -65,7 +67,7 @@ export const FAMILIES: readonly PotentialFamily[] = [
   },
   {
     id: 'natural', label: 'Natural inflation', expression: 'V0 * (1 + cos(phi / f))',
-    parameters: [V0, { name: 'f', default: 7, range: [1, 50], scale: 'log', description: 'axion decay constant' }],
+    parameters: [V0, { name: 'f', default: 7, range: [1, 50], scale: 'log', positive: true, description: 'axion decay constant' }],
     fieldDomain: { min: '0', max: 'pi * f' },
     description: 'A pseudo-Nambu-Goldstone boson rolling from the top (phi = 0) to the minimum at pi f.',
     reference: 'K. Freese, J. A. Frieman & A. V. Olinto, Phys. Rev. Lett. 65, 3233 (1990)',
@@ -89,8 +91,8 @@ export const FAMILIES: readonly PotentialFamily[] = [
     id: 'hilltop', label: 'Hilltop', expression: 'V0 * (1 - (phi / mu)^q)',
     parameters: [
       V0,
-      { name: 'mu', default: 10, range: [1, 50], scale: 'linear', description: 'field value where V = 0' },
-      { name: 'q', default: 4, range: [2, 8], scale: 'linear', description: 'power of the hilltop' },
+      { name: 'mu', default: 10, range: [1, 50], scale: 'linear', positive: true, description: 'field value where V = 0' },
+      { name: 'q', default: 4, range: [2, 8], scale: 'linear', positive: true, description: 'power of the hilltop' },
     ],
     fieldDomain: { min: '0', max: 'mu' },
     description: 'Small-field inflation rolling off a maximum at phi = 0 towards V = 0 at mu.',
@@ -109,6 +111,8 @@ export interface CompiledFamily extends GeneratedPotential {
   readonly family: PotentialFamily;
   /** Default value of every parameter, for `resolveParameters`. */
   readonly defaults: Readonly<Record<string, number>>;
+  /** Parameters that must be > 0 (FamilyParameter.positive). */
+  readonly positive: readonly string[];
   /** Generated bodies of the search interval for phi0 (`family.fieldDomain`, each writes out[0]). */
   readonly domainCode: { readonly min: string; readonly max: string };
 }
@@ -140,6 +144,7 @@ export function compileFamily(id: string): CompiledFamily {
     family,
     domainCode: { min: minBound.code, max: maxBound.code },
     defaults: Object.fromEntries(family.parameters.map((p) => [p.name, p.default])),
+    positive: family.parameters.filter((p) => p.positive).map((p) => p.name),
   };
   cache.set(id, compiled);
   return compiled;

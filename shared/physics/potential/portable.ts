@@ -10,6 +10,8 @@ import type { CompiledPotential, PotentialEvaluator } from './types.ts';
 export type PortablePotential = {
   readonly defaults: Readonly<Record<string, number>>;
   readonly needsEndPhi: boolean;
+  /** Parameters a family only defines for values > 0; absent: none. */
+  readonly positive?: readonly string[];
   /** Bodies of the family's field-domain bounds (each writes out[0]); absent: the default range. */
   readonly domainCode?: { readonly min: string; readonly max: string };
 } & (
@@ -26,6 +28,7 @@ export interface PreparedPotential {
   defaults: Readonly<Record<string, number>>;
   fieldDomain: (params: Float64Array) => { min: number; max: number };
   needsEndPhi: boolean;
+  positive: readonly string[];
 }
 
 // Only bodies produced by codegen.ts reach this (PortablePotential is made by portablePotential in
@@ -47,5 +50,5 @@ export function fromPortable(portable: PortablePotential): PreparedPotential {
       return { min: lower, max: out[0]! };
     };
   }
-  return { potential, defaults: portable.defaults, fieldDomain, needsEndPhi: portable.needsEndPhi };
+  return { potential, defaults: portable.defaults, fieldDomain, needsEndPhi: portable.needsEndPhi, positive: portable.positive ?? [] };
 }
