@@ -53,7 +53,8 @@ function checkNames(plan: Record<string, unknown>, facts: PotentialFacts | undef
       checkPivotAxis(axis, `axes[${i}]`, issues);
     } else if (facts !== undefined && !facts.allowed.includes(name)) {
       issues.push({ path: `axes[${i}].name`, message: `"${name}" is not a parameter of ${facts.label}; allowed: ${allowedAxes}` });
-    } else if (facts?.positive.includes(name)) {
+    } else if (facts?.positive.includes(name) && !isRecord(axis.logRange)) {
+      // A log range's bounds are > 0 already (scanPlanSchema says so for every axis).
       checkAxisValues(axis, `axes[${i}]`, (v) => v > 0, mustBePositive(name, facts), issues);
     }
   });
