@@ -41,7 +41,12 @@ export async function startResultsApp(): Promise<ResultsApp> {
   const accounts = await openAccounts(handle.db, config, await createMailer(config.mail, logger), logger);
   const app = createApp({ db: handle.db, logger, scans, events, accounts, scanFeatures: [resultsRouter(handle.db)] });
   const server = app.listen(0, '127.0.0.1');
-  server.keepAliveTimeout = 65_000; // as startServer: clients close idle connections first
+  // Longer than any test here. The test's fetch and this server share one event loop, and
+  // inserting 200,000 rows keeps it busy for about a minute: past startServer's 65 s, the
+  // server's keep-alive timer and the client's idle timer (a second or two earlier) both expire
+  // while it is blocked, and the next request can go out on the socket the server closes next
+  // (ECONNRESET, seen once after a 65.5 s insert). Across processes the client closes first.
+  server.keepAliveTimeout = 600_000;
   await once(server, 'listening');
   const origin = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
   const api = `${origin}/api/v1`;
