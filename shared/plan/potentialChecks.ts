@@ -1,6 +1,6 @@
 import { InvalidInputError } from '../errors.ts';
 import { checkParameterNames, compileExpression } from '../physics/potential/expression.ts';
-import { FAMILIES } from '../physics/potential/families.ts';
+import { FAMILIES, positiveParameters } from '../physics/potential/families.ts';
 import { parseTabulatedPotential } from '../physics/potential/tabulated.ts';
 import type { PlanIssue } from './planError.ts';
 
@@ -46,8 +46,7 @@ export function checkPotential(raw: unknown, issues: PlanIssue[]): PotentialFact
       return undefined;
     }
     const names = found.parameters.map((p) => p.name);
-    const positive = found.parameters.filter((p) => p.positive).map((p) => p.name);
-    return { label: `the "${family}" family`, allowed: names, required: [], needsEndPhi: found.needsEndPhi === true, positive };
+    return { label: `the "${family}" family`, allowed: names, required: [], needsEndPhi: found.needsEndPhi === true, positive: positiveParameters(found) };
   }
 
   if (typeof expression === 'string' && expression !== '') {

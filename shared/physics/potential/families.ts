@@ -117,6 +117,9 @@ export interface CompiledFamily extends GeneratedPotential {
   readonly domainCode: { readonly min: string; readonly max: string };
 }
 
+/** Names of the family's parameters that must be > 0. */
+export const positiveParameters = (family: PotentialFamily): string[] => family.parameters.filter((p) => p.positive).map((p) => p.name);
+
 export function getFamily(id: string): PotentialFamily {
   const family = FAMILIES.find((f) => f.id === id);
   if (family === undefined) {
@@ -144,7 +147,7 @@ export function compileFamily(id: string): CompiledFamily {
     family,
     domainCode: { min: minBound.code, max: maxBound.code },
     defaults: Object.fromEntries(family.parameters.map((p) => [p.name, p.default])),
-    positive: family.parameters.filter((p) => p.positive).map((p) => p.name),
+    positive: positiveParameters(family),
   };
   cache.set(id, compiled);
   return compiled;
