@@ -17,8 +17,13 @@ export type InitialFieldResult = { ok: true; phi0: number } | { ok: false; statu
 
 /** Grid steps over the domain; the guess only has to be good enough for the full equations to check. */
 const GRID = 256;
-const GAUSS_X = [-0.9602898564975363, -0.7966664774136267, -0.5255324099163290, -0.1834346424956498, 0.1834346424956498, 0.5255324099163290, 0.7966664774136267, 0.9602898564975363];
-const GAUSS_W = [0.1012285362903763, 0.2223810344533745, 0.3137066458778873, 0.3626837833783620, 0.3626837833783620, 0.3137066458778873, 0.2223810344533745, 0.1012285362903763];
+/**
+ * Gauss–Legendre, 4 nodes a grid cell: exact for cubics, so on smooth stretches of V/|V'| the
+ * count is far better than the guess needs; near a hilltop's maximum, where the density diverges,
+ * no rule is exact and the full equations' check corrects the guess.
+ */
+const GAUSS_X = [-0.8611363115940526, -0.3399810435848563, 0.3399810435848563, 0.8611363115940526];
+const GAUSS_W = [0.3478548451374538, 0.6521451548625461, 0.6521451548625461, 0.3478548451374538];
 
 interface SlowRoll {
   /** V/|V'| (e-folds per unit field), NaN where the potential is not positive and finite. */
@@ -41,24 +46,43 @@ function slowRoll(evaluate: PotentialEvaluator, params: Float64Array): SlowRoll 
   };
 }
 
-/** Gauss–Legendre (8 points) of V/|V'| over [a, b]; nodes never touch a hilltop's exact maximum. */
+/** Gauss–Legendre of V/|V'| over [a, b]; nodes never touch a hilltop's exact maximum. */
 function efoldsBetween(sr: SlowRoll, a: number, b: number): number {
   const mid = 0.5 * (a + b);
   const half = 0.5 * Math.abs(b - a);
   let sum = 0;
-  for (let i = 0; i < 8; i++) sum += GAUSS_W[i]! * sr.efoldDensity(mid + half * GAUSS_X[i]!);
+  for (let i = 0; i < GAUSS_X.length; i++) sum += GAUSS_W[i]! * sr.efoldDensity(mid + half * GAUSS_X[i]!);
   return sum * half;
 }
 
-function bisect(f: (x: number) => number, a: number, b: number): number {
+/**
+ * Root of f in [a, b] (f(a), f(b) of opposite signs) by the Illinois variant of regula falsi
+ * (Dowell & Jarratt 1971, BIT 11, 168): superlinear, and never leaves the bracket. The root is a
+ * starting point for the walk, so 1e-12 of the cell is plenty.
+ */
+function rootInBracket(f: (x: number) => number, a: number, b: number): number {
   let fa = f(a);
-  for (let i = 0; i < 60; i++) {
-    const m = 0.5 * (a + b);
-    if (m === a || m === b) break;
-    const fm = f(m);
-    if (fm === 0) return m;
-    if ((fm < 0) === (fa < 0)) (a = m), (fa = fm);
-    else b = m;
+  let fb = f(b);
+  const tolerance = 1e-12 * Math.abs(b - a);
+  let side = 0;
+  for (let i = 0; i < 100 && Math.abs(b - a) > tolerance; i++) {
+    let c = (a * fb - b * fa) / (fb - fa);
+    let fc = f(c);
+    // A non-finite value inside the cell: fall back to bisection there.
+    if (!Number.isFinite(fc)) fc = f((c = 0.5 * (a + b)));
+    if (fc === 0 || !Number.isFinite(fc)) return c;
+    if ((fc < 0) === (fb < 0)) {
+      b = c;
+      fb = fc;
+      // The same end moved twice: halve the other end's weight so it moves too.
+      if (side === -1) fa /= 2;
+      side = -1;
+    } else {
+      a = c;
+      fa = fc;
+      if (side === 1) fb /= 2;
+      side = 1;
+    }
   }
   return 0.5 * (a + b);
 }
@@ -123,7 +147,7 @@ function slowRollEnds(sr: SlowRoll, domain: FieldDomain): Array<{ phi: number; d
     const x = domain.min + i * h;
     const cur = sr.epsV(x) - 1;
     if (Number.isFinite(prev) && Number.isFinite(cur) && (prev < 0) !== (cur < 0)) {
-      const phi = bisect((p) => sr.epsV(p) - 1, x - h, x);
+      const phi = rootInBracket((p) => sr.epsV(p) - 1, x - h, x);
       const dir = cur < 0 ? 1 : -1;
       // The field must roll toward this point: V rises into the inflating side.
       if (Math.sign(sr.slope(phi)) === dir) ends.push({ phi, dir });
