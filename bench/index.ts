@@ -1,7 +1,7 @@
 /**
  * `npm run bench [-- --json] [-- --seconds S] [-- --service-points N (0 skips)] [-- --scaleout [--scaleout-points N]]`:
  * speed figures of the physics core on one core, beside a plain scipy script doing the same work
- * at the same tolerance. --scaleout adds 1 and 2 `rollway worker` processes on a temporary
+ * (at the tolerance where its n_s and N_end are as accurate as ours, and at our nominal rtol). --scaleout adds 1 and 2 `rollway worker` processes on a temporary
  * PostgreSQL (200,000 points by default, a few minutes on 2 cores). With --json the last line is
  * one JSON object (the benchmark contract in DESIGN.md).
  */
@@ -31,8 +31,12 @@ const rows: Array<[string, string]> = [
   ['fast path, same potential as custom expression', figures.customExprPointsPerSecond.toFixed(0)],
   ['  built-in / custom speed ratio', figures.customExprRatio.toFixed(2)],
   ['exact spectra, starobinsky (points/s, one core)', figures.exactPointsPerSecond.toFixed(0)],
-  ['scipy DOP853 script, same work, rtol 1e-8', figures.baselinePointsPerSecond.toFixed(1)],
-  ['  fast path / scipy', `${figures.baselineRatio.toFixed(0)}x`],
+  [`scipy DOP853 script, equal accuracy: rtol ${figures.baselineRtol.toExponential(0)}`, figures.baselinePointsPerSecond.toFixed(1)],
+  ['  its |Δn_s| / |ΔN_end| (ours, fast path)', `${figures.baselineNsError.toExponential(1)} / ${figures.baselineNEndError.toExponential(1)} (${figures.nsErrorFast.toExponential(1)} / ${figures.nEndErrorFast.toExponential(1)})`],
+  ['  fast path / scipy, equal accuracy', `${figures.baselineRatio.toFixed(0)}x`],
+  ['scipy DOP853 script at our nominal rtol 1e-8', figures.baselineNominalPointsPerSecond.toFixed(1)],
+  ['  its |Δn_s| / |ΔN_end|', `${figures.baselineNominalNsError.toExponential(1)} / ${figures.baselineNominalNEndError.toExponential(1)}`],
+  ['  fast path / scipy at rtol 1e-8', `${figures.baselineNominalRatio.toFixed(0)}x`],
   [`bare odex reference run (DESIGN.md: ${DESIGN_REFERENCE_POINTS_PER_SECOND}/s)`, figures.odexReferencePointsPerSecond.toFixed(0)],
   ['  fast path / reference (machine speed removed)', figures.fastReferenceRatio.toFixed(2)],
   ['largest |Δn_s| fast, default vs rtol 1e-12', figures.nsErrorFast.toExponential(1)],

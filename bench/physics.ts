@@ -49,19 +49,59 @@ function errorsAtDefault(exact: boolean): { ns: number; nEnd: number } {
   return { ns, nEnd };
 }
 
-/** The scipy script in a child process (its own core); resolves with its points per CPU second. */
-async function scipyBaseline(seconds: number): Promise<number> {
-  const script = fileURLToPath(new URL('./scipy_baseline.py', import.meta.url));
-  const { stdout } = await execFileAsync('/usr/bin/python3', [script, '--rtol', '1e-8', '--seconds', String(seconds)], { encoding: 'utf8' });
-  return (JSON.parse(stdout.trim().split('\n').at(-1)!) as { pointsPerSecond: number }).pointsPerSecond;
+const SCIPY_SCRIPT = fileURLToPath(new URL('./scipy_baseline.py', import.meta.url));
+/** Our default's own rtol, at which the scipy script was compared before the equal-accuracy rule. */
+const NOMINAL_RTOL = 1e-8;
+/** Half-decade tolerance ladder for the scipy script's equal-accuracy run. */
+const SCIPY_LADDER = [1e-8, 3e-9, 1e-9, 3e-10, 1e-10, 3e-11, 1e-11, 3e-12, 1e-12];
+
+async function runScipy(args: string[]): Promise<Array<Record<string, number>>> {
+  const { stdout } = await execFileAsync('/usr/bin/python3', [SCIPY_SCRIPT, ...args], { encoding: 'utf8' });
+  return stdout.trim().split('\n').map((line) => JSON.parse(line) as Record<string, number>);
+}
+
+interface ScipyAccuracy {
+  rtol: number;
+  nsError: number;
+  nEndError: number;
+}
+
+/** The scipy script's n_s and N_end errors at each rung of the ladder (no timing). */
+async function scipyAccuracy(): Promise<ScipyAccuracy[]> {
+  const rows = await runScipy(['--accuracy', '--rtol', SCIPY_LADDER.join(',')]);
+  return rows.map((row) => ({ rtol: row.rtol!, nsError: row.nsError!, nEndError: row.nEndError! }));
+}
+
+/**
+ * The same work: the loosest rung at which the scipy script's n_s and N_end are both at least as
+ * accurate as ours at the default precision (a work-precision comparison; Hairer, Nørsett &
+ * Wanner 1993, Solving ODEs I, section II.10). The tightest rung when none is.
+ */
+export function equalAccuracyRung(ladder: readonly ScipyAccuracy[], ours: { ns: number; nEnd: number }): ScipyAccuracy {
+  return ladder.find((rung) => rung.nsError <= ours.ns && rung.nEndError <= ours.nEnd) ?? ladder.at(-1)!;
+}
+
+/** The scipy script in a child process (its own core): points per CPU second at each rtol, timed one after the other. */
+async function scipyRates(rtols: number[], seconds: number): Promise<number[]> {
+  const rows = await runScipy(['--rtol', rtols.join(','), '--seconds', String(seconds)]);
+  return rows.map((row) => row.pointsPerSecond!);
 }
 
 export interface PhysicsFigures {
   fastPointsPerSecond: number;
   customExprPointsPerSecond: number;
   exactPointsPerSecond: number;
+  /** The scipy script at equal accuracy (see equalAccuracyRung), its rtol and errors. */
   baselinePointsPerSecond: number;
   baselineRatio: number;
+  baselineRtol: number;
+  baselineNsError: number;
+  baselineNEndError: number;
+  /** The scipy script at our nominal rtol 1e-8, with its (larger) errors. */
+  baselineNominalPointsPerSecond: number;
+  baselineNominalRatio: number;
+  baselineNominalNsError: number;
+  baselineNominalNEndError: number;
   customExprRatio: number;
   nsErrorFast: number;
   nsErrorExact: number;
@@ -76,25 +116,38 @@ export interface PhysicsFigures {
 }
 
 export async function measurePhysics(seconds: number): Promise<PhysicsFigures> {
-  // The scipy script runs on the other core while the fast path is timed on this one, so the
-  // ratio compares the two at the same moments: this machine's speed drifts by up to 2x within
-  // an hour, and Python and V8 do not always drift together.
-  const scipy = scipyBaseline(seconds);
+  const ladder = scipyAccuracy();
+  const fastErrors = errorsAtDefault(false);
+  const exactErrors = errorsAtDefault(true);
+  const rungs = await ladder;
+  const matched = equalAccuracyRung(rungs, fastErrors);
+  const nominal = rungs.find((rung) => rung.rtol === NOMINAL_RTOL)!;
+  // The scipy script runs on the other core while the fast path and the reference are timed on
+  // this one (each for `seconds`, as the script's two rtols), so the ratios compare the two at
+  // the same moments: this machine's speed drifts by up to 2x within an hour, and Python and V8
+  // do not always drift together.
+  const scipy = scipyRates([matched.rtol, NOMINAL_RTOL], seconds);
   const fast = rate({ family: 'starobinsky' }, false, seconds);
   const reference = odexReferenceRate(seconds);
-  const baseline = await scipy;
+  const [baseline, baselineNominal] = await scipy;
   const custom = rate({ expression: STAROBINSKY_EXPRESSION }, false, seconds);
   const exact = rate({ family: 'starobinsky' }, true, seconds);
-  const fastErrors = errorsAtDefault(false);
   return {
     fastPointsPerSecond: fast.pointsPerSecond,
     customExprPointsPerSecond: custom.pointsPerSecond,
     exactPointsPerSecond: exact.pointsPerSecond,
-    baselinePointsPerSecond: baseline,
-    baselineRatio: fast.pointsPerSecond / baseline,
+    baselinePointsPerSecond: baseline!,
+    baselineRatio: fast.pointsPerSecond / baseline!,
+    baselineRtol: matched.rtol,
+    baselineNsError: matched.nsError,
+    baselineNEndError: matched.nEndError,
+    baselineNominalPointsPerSecond: baselineNominal!,
+    baselineNominalRatio: fast.pointsPerSecond / baselineNominal!,
+    baselineNominalNsError: nominal.nsError,
+    baselineNominalNEndError: nominal.nEndError,
     customExprRatio: fast.pointsPerSecond / custom.pointsPerSecond,
     nsErrorFast: fastErrors.ns,
-    nsErrorExact: errorsAtDefault(true).ns,
+    nsErrorExact: exactErrors.ns,
     nEndErrorFast: fastErrors.nEnd,
     fastEvaluationsPerPoint: fast.evaluationsPerPoint,
     fastNsPerEvaluation: 1e9 / (fast.pointsPerSecond * fast.evaluationsPerPoint),

@@ -10,8 +10,13 @@ Per point (N_* cycling over 50..60):
     with a terminal event at eps1 = 1 and dense output to read the pivot N_* before the end;
   - eps1, eps2 = 2 phi''/phi', eps3 = d ln eps2/dN (from the equation of motion differentiated
     once more), then n_s and r at second order with C = gamma_E + ln 2 - 2.
-Only the compute loop is timed, in CPU seconds of this process. Prints one JSON line: {"pointsPerSecond", "points", "rtol"}.
-Usage: /usr/bin/python3 bench/scipy_baseline.py [--rtol 1e-8] [--seconds 5]
+Only the compute loop is timed, in CPU seconds of this process. Prints one JSON line per rtol:
+{"pointsPerSecond", "points", "rtol"}.
+With --accuracy it times nothing and prints, per rtol, the largest |dn_s| and |dN_end| over 16
+pivots against the same script at rtol 1e-13 (atol 1e-16), so that the benchmark can pick the
+tolerance at which this script does the same work as ours: a work-precision comparison (Hairer,
+Norsett & Wanner 1993, Solving ODEs I, section II.10).
+Usage: /usr/bin/python3 bench/scipy_baseline.py [--rtol 1e-8[,1e-10...]] [--seconds 5] [--accuracy]
 """
 import argparse
 import json
@@ -66,24 +71,47 @@ def point(n_star, rtol, atol):
     e3 = 2 * (b / x - (a / x) ** 2) / e2
     ns = 1 - 2 * e1 - e2 - 2 * e1**2 - (2 * C + 3) * e1 * e2 - C * e2 * e3
     r = 16 * e1 * (1 + C * e2)
-    return ns, r
+    return ns, r, n_end
 
 
-def main():
-    parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
-    parser.add_argument("--rtol", type=float, default=1e-8)
-    parser.add_argument("--atol", type=float, default=1e-14)
-    parser.add_argument("--seconds", type=float, default=5.0)
-    args = parser.parse_args()
+def accuracy(rtols, atol):
+    """Largest |dn_s| and |dN_end| at each rtol over every 4th pivot (as the TypeScript side), against rtol 1e-13."""
+    pivots = np.linspace(50.0, 60.0, 64)[::4]
+    reference = [point(p, 1e-13, 1e-16) for p in pivots]
+    for rtol in rtols:
+        got = [point(p, rtol, atol) for p in pivots]
+        print(json.dumps({
+            "rtol": rtol,
+            "nsError": max(abs(a[0] - b[0]) for a, b in zip(got, reference)),
+            "nEndError": max(abs(a[2] - b[2]) for a, b in zip(got, reference)),
+        }))
+
+
+def rate(rtol, atol, seconds):
     pivots = np.linspace(50.0, 60.0, 64)
     points = 0
     # CPU time of this process, as the TypeScript side measures: a busy machine disturbs it less.
     start = time.process_time()
-    while time.process_time() - start < args.seconds:
-        point(pivots[points % len(pivots)], args.rtol, args.atol)
+    while time.process_time() - start < seconds:
+        point(pivots[points % len(pivots)], rtol, atol)
         points += 1
     elapsed = time.process_time() - start
-    print(json.dumps({"pointsPerSecond": points / elapsed, "points": points, "rtol": args.rtol}))
+    print(json.dumps({"pointsPerSecond": points / elapsed, "points": points, "rtol": rtol}), flush=True)
+
+
+def main():
+    parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    parser.add_argument("--rtol", default="1e-8", help="one rtol or a comma-separated list")
+    parser.add_argument("--atol", type=float, default=1e-14)
+    parser.add_argument("--seconds", type=float, default=5.0)
+    parser.add_argument("--accuracy", action="store_true")
+    args = parser.parse_args()
+    rtols = [float(x) for x in args.rtol.split(",")]
+    if args.accuracy:
+        accuracy(rtols, args.atol)
+    else:
+        for rtol in rtols:
+            rate(rtol, args.atol, args.seconds)
 
 
 if __name__ == "__main__":
