@@ -23,3 +23,6 @@ fi
 if [ ! -f node_modules/.package-lock.json ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then
   npm ci --no-audit --no-fund
 fi
+# Our patches to dependencies (patches/, applied by npm's postinstall too): re-applied when a
+# checkout brings a new one to an installed tree; already-applied ones are left alone.
+npx --no-install patch-package
