@@ -45,6 +45,32 @@ const EXPECTED = [/status of 401/, /^HTTP 401 GET \/api\/v1\/auth\/me$/, /^HTTP 
 const unexpectedErrors = () => browser.consoleErrors.filter((e) => !EXPECTED.some((p) => p.test(e)));
 
 describe('web app', () => {
+  it('keeps the focus where the visitor puts it on the sign-in page', async () => {
+    // Timers of the page run only when the test says so: a focus the page defers (Vuetify's
+    // autofocus waits 50 ms, longer on a busy machine) would land between the two halves typed
+    // into the password field and take the second half into the e-mail field.
+    // A browser of its own: the clock is installed for a whole browser context.
+    const own = await openBrowser({ width: 1400, height: 900 });
+    const { page } = own;
+    try {
+      await page.clock.install({ time: new Date('2026-01-01T00:00:00Z') });
+      await page.clock.pauseAt(new Date('2026-01-01T00:00:01Z'));
+      await page.goto(`${server.url}/sign-in`);
+      const email = page.getByLabel('E-mail');
+      const password = page.getByLabel('Password');
+      await password.waitFor();
+      await expect.poll(() => email.evaluate((el) => el === document.activeElement)).toBe(true);
+      await password.focus();
+      await page.keyboard.type('first-');
+      await page.clock.runFor(2000);
+      await page.keyboard.type('second');
+      expect(await password.inputValue()).toBe('first-second');
+      expect(await email.inputValue()).toBe('');
+    } finally {
+      await own.close();
+    }
+  });
+
   it('sends a visitor to sign in and back to the page asked for, with one message for any wrong login', async () => {
     const { page } = browser;
     await page.goto(`${server.url}/scans/${quickId}`);
