@@ -59,7 +59,7 @@ describe('web app', () => {
       const email = page.getByLabel('E-mail');
       const password = page.getByLabel('Password');
       await password.waitFor();
-      await expect.poll(() => email.evaluate((el) => el === document.activeElement)).toBe(true);
+      await expect.poll(() => email.evaluate((el) => el === el.ownerDocument.activeElement)).toBe(true);
       await password.focus();
       await page.keyboard.type('first-');
       await page.clock.runFor(2000);
