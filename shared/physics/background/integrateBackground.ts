@@ -1,5 +1,5 @@
 import type { PotentialEvaluator } from '../potential/types.ts';
-import { createIntegrator, type Integrator } from '../ode/integrate.ts';
+import { createIntegrator, type Integrator, type Rhs } from '../ode/integrate.ts';
 import { createBackgroundRhs, fieldDerivatives } from './equations.ts';
 import { locateCrossing, type EventFunction } from './locateCrossing.ts';
 
@@ -30,6 +30,8 @@ export interface BackgroundOptions {
   rtol: number;
   atol: number;
   maxEfolds: number;
+  /** The same equations with the potential written in (inlinedBackgroundRhs); default: createBackgroundRhs on `evaluate`. */
+  rhs?: Rhs;
 }
 
 /**
@@ -81,7 +83,7 @@ export function integrateBackground(
   end: EndCondition,
   options: BackgroundOptions,
 ): BackgroundResult {
-  const rhs = createBackgroundRhs(evaluate, params);
+  const rhs = options.rhs ?? createBackgroundRhs(evaluate, params);
   const tolerances = { rtol: backgroundTolerances(options.rtol), atol: options.atol };
   const integrator = createIntegrator(rhs, 2, tolerances);
   const trajectory: Trajectory = { n: [0], phi: [phi0], u: [0] };

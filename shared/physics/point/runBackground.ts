@@ -17,7 +17,7 @@ export type BackgroundOutcome =
  */
 export function runBackground(input: PointInput, needed: number): BackgroundOutcome {
   const { evaluate, params, end, precision } = input;
-  const options = { rtol: precision.rtol, atol: precision.atol, maxEfolds: precision.maxEfolds };
+  const options = { rtol: precision.rtol, atol: precision.atol, maxEfolds: precision.maxEfolds, ...(input.backgroundRhs ? { rhs: input.backgroundRhs } : {}) };
   let evaluations = 0;
   if (input.phi0 !== undefined) {
     const background = integrateBackground(evaluate, params, input.phi0, end, options);

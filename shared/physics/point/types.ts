@@ -2,6 +2,7 @@ import type { EndCondition } from '../background/integrateBackground.ts';
 import type { FieldDomain } from '../background/initialField.ts';
 import type { ReheatingHistory } from '../observables/reheating.ts';
 import type { Precision } from '../precision.ts';
+import type { Rhs } from '../ode/integrate.ts';
 import type { PotentialEvaluator } from '../potential/types.ts';
 
 export type PointStatus = 'ok' | 'no_inflation' | 'too_few_efolds' | 'never_ends' | 'negative_potential' | 'solver_failed';
@@ -11,6 +12,8 @@ export type PivotRule = { kind: 'efolds'; efolds: number } | { kind: 'reheating'
 export interface PointInput {
   evaluate: PotentialEvaluator;
   params: Float64Array;
+  /** The background equations for these params with a generated potential written in (inlinedBackgroundRhs); absent: built on `evaluate`. */
+  backgroundRhs?: Rhs;
   /** Where the automatic initial-field search looks (ignored when phi0 is given). */
   domain: FieldDomain;
   end: EndCondition;

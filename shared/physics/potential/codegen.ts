@@ -151,12 +151,12 @@ class Emitter {
 }
 
 /**
- * Body of `(phi, p, out) => void` writing out[i] = outputs[i]; parameters are read from
- * `p[index in parameterNames]`.
+ * Statements that read `phi` and the parameters (`p[index in parameterNames]`) and declare
+ * `const <locals[i]> = outputs[i]`: the potential's part of the functions portable.ts and the
+ * background equations build around them. Only this file's tokens appear in them.
  */
-export function generateBody(outputs: readonly Expr[], parameterNames: readonly string[], field: string): string {
+export function generateStatements(outputs: readonly Expr[], parameterNames: readonly string[], field: string, locals: readonly string[]): string {
   const emitter = new Emitter(parameterNames, field);
   const results = outputs.map((expr) => emitter.value(expr).code);
-  const stores = results.map((code, i) => `out[${i}] = ${code};`);
-  return ['"use strict";', ...emitter.declarations(results), ...stores].join('\n');
+  return [...emitter.declarations(results), ...results.map((code, i) => `const ${locals[i]} = ${code};`)].join('\n');
 }

@@ -7,12 +7,14 @@
 import { derivative, parse, type MathNode } from 'mathjs/number';
 import { InvalidInputError } from '../../errors.ts';
 import { CONSTANTS, FUNCTIONS, USER_FUNCTIONS, toMathNode, type Expr } from './ast.ts';
-import { generateBody } from './codegen.ts';
+import { generateStatements } from './codegen.ts';
+import { evaluatorFromCode, POTENTIAL_LOCALS } from './portable.ts';
 import { checkTree } from './syntax.ts';
 import { tidy } from './tidy.ts';
-import type { CompiledPotential, PotentialEvaluator } from './types.ts';
+import type { CompiledPotential } from './types.ts';
 
 /** A potential compiled from an expression, with the body of `evaluate` for rebuilding it in another thread. */
+/** `code`: the generated statements that declare V, dV and d2V (codegen.ts, portable.ts). */
 export type GeneratedPotential = CompiledPotential & { readonly code: string };
 
 /** Far above any real potential; keeps parsing and differentiation of hostile input bounded. */
@@ -120,13 +122,11 @@ function compile(source: string, parameterNames: readonly string[], field: strin
     : { kind: 'op', op: '*', left: { kind: 'sym', name: 'V0' }, right: checked };
   const dV = differentiate(V, names, field, MAX_DERIVATIVE_NODES[0]);
   const d2V = differentiate(dV, names, field, MAX_DERIVATIVE_NODES[1]);
-  const body = generateBody([V, dV, d2V], names, field);
-  // The body holds only tokens generated in codegen.ts (see there); this is not user text.
-  const evaluate = new Function('phi', 'p', 'out', body) as unknown as PotentialEvaluator;
+  const code = generateStatements([V, dV, d2V], names, field, POTENTIAL_LOCALS);
   return {
     parameterNames: names,
-    evaluate,
-    code: body,
+    evaluate: evaluatorFromCode(code),
+    code,
     formula: { V: toMathNode(V).toString(), dV: toMathNode(dV).toString(), d2V: toMathNode(d2V).toString() },
   };
 }

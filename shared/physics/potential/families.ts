@@ -113,7 +113,7 @@ export interface CompiledFamily extends GeneratedPotential {
   readonly defaults: Readonly<Record<string, number>>;
   /** Parameters that must be > 0 (FamilyParameter.positive). */
   readonly positive: readonly string[];
-  /** Generated bodies of the search interval for phi0 (`family.fieldDomain`, each writes out[0]). */
+  /** Generated statements of the search interval for phi0 (`family.fieldDomain`; V is the bound). */
   readonly domainCode: { readonly min: string; readonly max: string };
 }
 
@@ -139,7 +139,7 @@ export function compileFamily(id: string): CompiledFamily {
   const family = getFamily(id);
   const names = family.parameters.map((p) => p.name);
   const potential = compileExpression(family.expression, names);
-  // Domain bounds are constant in phi: compiled the same way and read from out[0].
+  // Domain bounds are constant in phi: compiled the same way, the bound being V.
   const minBound = compileExpression(family.fieldDomain.min, names, 'fieldDomain.min');
   const maxBound = compileExpression(family.fieldDomain.max, names, 'fieldDomain.max');
   const compiled: CompiledFamily = {

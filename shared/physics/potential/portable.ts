@@ -12,7 +12,7 @@ export type PortablePotential = {
   readonly needsEndPhi: boolean;
   /** Parameters a family only defines for values > 0; absent: none. */
   readonly positive?: readonly string[];
-  /** Bodies of the family's field-domain bounds (each writes out[0]); absent: the default range. */
+  /** Generated statements of the family's field-domain bounds (V is the bound); absent: the default range. */
   readonly domainCode?: { readonly min: string; readonly max: string };
 } & (
   | { readonly kind: 'generated'; readonly code: string; readonly parameterNames: readonly string[]; readonly formula: CompiledPotential['formula'] }
@@ -29,19 +29,29 @@ export interface PreparedPotential {
   fieldDomain: (params: Float64Array) => { min: number; max: number };
   needsEndPhi: boolean;
   positive: readonly string[];
+  /** The generated statements (declaring V, dV, d2V) when the potential is generated code, for the inlined background equations. */
+  code?: string;
 }
 
-// Only bodies produced by codegen.ts reach this (PortablePotential is made by portablePotential in
-// point/preparePoint.ts from a checked tree, never from user text), so this is not evaluating what a user wrote.
-const generated = (code: string) => new Function('phi', 'p', 'out', code) as unknown as PotentialEvaluator;
+/** The locals the generated statements declare (codegen.ts, generateStatements): V, V', V''. */
+export const POTENTIAL_LOCALS = ['V', 'dV', 'd2V'] as const;
+
+/**
+ * The evaluator around generated statements. Only codegen.ts output reaches this
+ * (PortablePotential is made by portablePotential in point/preparePoint.ts from a checked tree,
+ * never from user text), so this is not evaluating what a user wrote.
+ */
+export function evaluatorFromCode(code: string): PotentialEvaluator {
+  return new Function('phi', 'p', 'out', `"use strict";\n${code}\nout[0] = V;\nout[1] = dV;\nout[2] = d2V;`) as unknown as PotentialEvaluator;
+}
 
 export function fromPortable(portable: PortablePotential): PreparedPotential {
   const potential: CompiledPotential = portable.kind === 'table'
     ? compileTabulatedPotential(portable.table)
-    : { parameterNames: portable.parameterNames, evaluate: generated(portable.code), formula: portable.formula };
+    : { parameterNames: portable.parameterNames, evaluate: evaluatorFromCode(portable.code), formula: portable.formula };
   let fieldDomain: PreparedPotential['fieldDomain'] = () => ({ ...DEFAULT_FIELD_RANGE });
   if (portable.domainCode) {
-    const [min, max] = [generated(portable.domainCode.min), generated(portable.domainCode.max)];
+    const [min, max] = [evaluatorFromCode(portable.domainCode.min), evaluatorFromCode(portable.domainCode.max)];
     const out = new Float64Array(3);
     fieldDomain = (params) => {
       min(0, params, out);
@@ -50,5 +60,8 @@ export function fromPortable(portable: PortablePotential): PreparedPotential {
       return { min: lower, max: out[0]! };
     };
   }
-  return { potential, defaults: portable.defaults, fieldDomain, needsEndPhi: portable.needsEndPhi, positive: portable.positive ?? [] };
+  return {
+    potential, defaults: portable.defaults, fieldDomain, needsEndPhi: portable.needsEndPhi, positive: portable.positive ?? [],
+    ...(portable.kind === 'generated' ? { code: portable.code } : {}),
+  };
 }

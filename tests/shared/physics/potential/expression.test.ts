@@ -162,9 +162,19 @@ describe('parameter names', () => {
     const code = c.evaluate.toString();
     expect(code).not.toMatch(/alpha|gamma_1|\bE\b/);
     expect(code).toContain('p[0]');
-    // Every identifier left once numbers are removed is ours: phi, p, out, Math.*, temporaries.
+    // Every identifier left once numbers are removed is ours: phi, p, out, Math.*, temporaries,
+    // and the locals V, dV, d2V that the generated statements declare (POTENTIAL_LOCALS).
     const identifiers = code.replace(/(?<![\w$])\d+(\.\d*)?(e[+-]?\d+)?/g, '0').match(/[A-Za-z_$][\w$]*/g) ?? [];
-    const ours = /^(phi|p|out|Math|exp|function|anonymous|const|use|strict|t\d+)$/;
+    const ours = /^(phi|p|out|Math|exp|function|anonymous|const|use|strict|t\d+|V|dV|d2V)$/;
     expect(identifiers.filter((id) => !ours.test(id))).toEqual([]);
+  });
+
+  it('reads parameters named like its own locals from p, never from the locals', () => {
+    // Parameters named dV and d2V: V = dV phi^2 + d2V, V' = 2 dV phi, V'' = 2 dV (times V0 = 1).
+    const c = compileExpression('dV * phi^2 + d2V', ['dV', 'd2V']);
+    expect(c.parameterNames).toEqual(['dV', 'd2V', 'V0']);
+    const out = new Float64Array(3);
+    c.evaluate(2, new Float64Array([3, 5, 1]), out);
+    expect([...out]).toEqual([17, 12, 6]);
   });
 });
