@@ -5,7 +5,8 @@ import { portablePotential } from '../../shared/physics/point/preparePoint.ts';
 import { PHYSICS_VERSION } from '../../shared/physics/version.ts';
 import type { PortablePotential } from '../../shared/physics/potential/portable.ts';
 import type { Database } from '../db/client.ts';
-import { insertPointResults, type WriteOutcome } from '../db/resultsWriter.ts';
+import { RESULT_COLUMNS } from '../db/resultColumns.ts';
+import { insertEncodedResults, insertPointResults, type WriteOutcome } from '../db/resultsWriter.ts';
 import type { Batch } from '../db/schema/batches.ts';
 import { findScan, settleScan, type Scan } from '../scans/scansRepository.ts';
 import type { BatchOutput, BatchTask } from './computeBatch.ts';
@@ -74,11 +75,13 @@ export async function createBatchRunner(db: Database, threads: number): Promise<
       const task: BatchTask = {
         scanId: batch.scanId, plan: source.plan, potential: source.potential, planHash: source.planHash, firstIndex: batch.firstIndex, pointCount: batch.pointCount,
         ...(reuse.remaining ? { indices: reuse.remaining } : {}),
+        // Rows copied from another scan are objects here, so only a batch with none comes back encoded.
+        ...(reuse.copied.length === 0 ? { encodeWith: RESULT_COLUMNS } : {}),
       };
       const output = task.indices?.length === 0
         ? { rows: [], computeSeconds: 0 }
         : ((await pool.run(task, { signal })) as BatchOutput);
-      return { ...output, rows: [...reuse.copied, ...output.rows] };
+      return reuse.copied.length === 0 ? output : { ...output, rows: [...reuse.copied, ...output.rows] };
     },
     forget(scanId) {
       plans.delete(scanId);
@@ -98,7 +101,7 @@ export async function createBatchRunner(db: Database, threads: number): Promise<
 export async function storeBatch(db: Database, batch: Batch, output: BatchOutput): Promise<{ outcome: WriteOutcome; scan: Scan | undefined } | undefined> {
   let outcome: WriteOutcome;
   try {
-    outcome = await insertPointResults(db, batch, output.rows);
+    outcome = output.encoded ? await insertEncodedResults(db, batch, output.encoded) : await insertPointResults(db, batch, output.rows);
   } catch (error) {
     if (await findScan(db, batch.scanId)) throw error;
     return undefined;

@@ -4,6 +4,8 @@ import { toPointInput } from '../../shared/physics/point/pointInput.ts';
 import { fromPortable, type PortablePotential, type PreparedPotential } from '../../shared/physics/potential/portable.ts';
 import { createPointSource, type PointSource } from '../../shared/plan/expandPlan.ts';
 import { PIVOT_AXIS, planBoundSet, type ScanPlan } from '../../shared/plan/scanPlan.ts';
+import { encodeRows, type EncodedRows } from '../db/copyBinary.ts';
+import type { ResultColumn } from '../db/resultColumns.ts';
 import type { NewPointResultRow } from '../db/schema/pointResults.ts';
 import { pointKey } from './pointKey.ts';
 
@@ -18,12 +20,19 @@ export interface BatchTask {
   pointCount: number;
   /** Only these point indices (a derived scan copies the others); default: the whole range. */
   indices?: number[];
+  /** When given (RESULT_COLUMNS), the rows come back encoded for binary COPY instead of as objects. */
+  encodeWith?: readonly ResultColumn[];
 }
 
+/** A batch's results: as rows, or (encodeWith) as one binary COPY stream with rows left empty. */
 export interface BatchOutput {
   rows: NewPointResultRow[];
+  encoded?: EncodedRows;
   computeSeconds: number;
 }
+
+/** Points a batch output holds, in either form. */
+export const pointsIn = (output: BatchOutput): number => output.encoded?.count ?? output.rows.length;
 
 interface CompiledPlan {
   source: PointSource;
@@ -81,5 +90,6 @@ export function computeBatch(task: BatchTask): BatchOutput {
       pointKey: pointKey(request),
     });
   }
-  return { rows, computeSeconds: (performance.now() - started) / 1000 };
+  const computeSeconds = (performance.now() - started) / 1000;
+  return task.encodeWith ? { rows: [], encoded: encodeRows(task.encodeWith, task.scanId, rows), computeSeconds } : { rows, computeSeconds };
 }

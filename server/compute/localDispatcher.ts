@@ -6,7 +6,7 @@ import { claimBatches, failBatch, releaseAllBatches, releaseBatch, updateScan } 
 import { toScanView } from '../scans/scanView.ts';
 import { startHeartbeat } from '../workers/heartbeat.ts';
 import { createBatchRunner, MAX_ATTEMPTS, storeBatch } from './batchRunner.ts';
-import type { BatchOutput } from './computeBatch.ts';
+import { pointsIn, type BatchOutput } from './computeBatch.ts';
 import type { Dispatcher } from './dispatcher.ts';
 
 export interface LocalDispatcherOptions {
@@ -37,7 +37,7 @@ export async function createLocalDispatcher({ db, events, logger, workers }: Loc
 
   const finish = async (batch: Batch, output: BatchOutput): Promise<void> => {
     const stored = await storeBatch(db, batch, output);
-    heartbeat.add(output.rows.length);
+    heartbeat.add(pointsIn(output));
     if (stored?.scan) events.publish(toScanView(stored.scan));
     if (stored?.scan?.state !== 'running') runner.forget(batch.scanId);
   };

@@ -4,7 +4,7 @@ import type { Database } from '../db/client.ts';
 import type { Batch } from '../db/schema/batches.ts';
 import { startHeartbeat } from '../workers/heartbeat.ts';
 import { createBatchRunner, storeBatch } from './batchRunner.ts';
-import type { BatchOutput } from './computeBatch.ts';
+import { pointsIn, type BatchOutput } from './computeBatch.ts';
 import { noteBatchError, returnBatch, startBatch, wantedScanIds } from './pgBossBatches.ts';
 import { BATCH_QUEUE, type BatchJob } from './pgBossQueue.ts';
 import { retryTransient, rootMessage } from './transientErrors.ts';
@@ -83,7 +83,7 @@ export async function startPgBossWorker({ db, boss, logger, concurrency }: PgBos
     }
     if (output) {
       const stored = await persist(() => storeBatch(db, batch, output));
-      heartbeat.add(output.rows.length);
+      heartbeat.add(pointsIn(output));
       if (stored?.scan?.state !== 'running') runner.forget(batch.scanId);
     }
     await complete();

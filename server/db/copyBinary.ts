@@ -1,4 +1,5 @@
 import type { ColumnKind, ResultColumn } from './resultColumns.ts';
+import type { NewPointResultRow } from './schema/pointResults.ts';
 
 // PostgreSQL's binary COPY format (docs: "COPY", section "Binary Format"). Binary rather than
 // CSV because PGlite's WebAssembly float8 parser costs ~2 µs a value: CSV and JSON inputs top
@@ -79,6 +80,34 @@ export function encodeCopyBinary(columns: readonly ResultColumn[], rows: readonl
   b.view.setInt16(b.at, -1);
   b.at += 2;
   return b.bytes.subarray(0, b.at);
+}
+
+/**
+ * A batch's rows as one binary COPY stream with the tally the settle statement needs. Compute
+ * threads make it (server/compute/computeBatch.ts), so the process's main thread receives one
+ * byte array instead of 500 row objects: no structured clone of the rows (~4 µs a point) and
+ * none of the garbage they leave there (~6 µs a point of GC, measured 2026-12-04).
+ */
+export interface EncodedRows {
+  scanId: number;
+  copy: Uint8Array;
+  count: number;
+  failed: number;
+  computeMs: number;
+}
+
+/** Pure and free of drizzle: `columns` is RESULT_COLUMNS, passed as plain data to threads. */
+export function encodeRows(columns: readonly ResultColumn[], scanId: number, rows: readonly NewPointResultRow[]): EncodedRows {
+  for (const row of rows) {
+    if (row.scanId !== scanId) throw new Error(`point ${row.pointIndex} belongs to scan ${row.scanId}, not to scan ${scanId}`);
+  }
+  return {
+    scanId,
+    copy: encodeCopyBinary(columns, rows as readonly Record<string, unknown>[]),
+    count: rows.length,
+    failed: rows.filter((row) => row.status !== 'ok').length,
+    computeMs: rows.reduce((sum, row) => sum + row.computeMs, 0),
+  };
 }
 
 const utf8Decoder = new TextDecoder();

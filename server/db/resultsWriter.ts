@@ -2,7 +2,7 @@ import type { PGlite } from '@electric-sql/pglite';
 import { sql, type SQL } from 'drizzle-orm';
 import { PgDialect } from 'drizzle-orm/pg-core';
 import { pgliteOf, type Database } from './client.ts';
-import { encodeCopyBinary } from './copyBinary.ts';
+import { encodeRows, type EncodedRows } from './copyBinary.ts';
 import { RESULT_COLUMN_LIST, RESULT_COLUMNS } from './resultColumns.ts';
 import type { Batch } from './schema/batches.ts';
 import type { NewPointResultRow } from './schema/pointResults.ts';
@@ -44,20 +44,25 @@ export async function insertPointResults(
     if (row.scanId !== batch.scanId) throw new Error(`point ${row.pointIndex} belongs to scan ${row.scanId}, not to batch ${batch.id} of scan ${batch.scanId}`);
   }
   if ((options.method ?? 'copy') === 'insert') return insertBatch(db, batch, rows);
+  return insertEncodedResults(db, batch, encodeRows(RESULT_COLUMNS, batch.scanId, rows));
+}
+
+/** The 'copy' method for rows a compute thread already encoded (encodeRows with RESULT_COLUMNS). */
+export async function insertEncodedResults(db: Database, batch: BatchRef, encoded: EncodedRows): Promise<WriteOutcome> {
+  if (encoded.scanId !== batch.scanId) throw new Error(`rows of scan ${encoded.scanId} do not belong to batch ${batch.id} of scan ${batch.scanId}`);
   const pglite = pgliteOf(db);
-  return pglite ? copyBatch(pglite, batch, rows) : copyBatchToPostgres(db, batch, rows);
+  return pglite ? copyBatch(pglite, batch, encoded) : copyBatchToPostgres(db, batch, encoded);
 }
 
 /** Binary COPY FROM STDIN (pg-copy-streams) on a pooled connection, by the rule of straightOrStaged. */
-async function copyBatchToPostgres(db: Database, batch: BatchRef, rows: readonly NewPointResultRow[]): Promise<WriteOutcome> {
+async function copyBatchToPostgres(db: Database, batch: BatchRef, encoded: EncodedRows): Promise<WriteOutcome> {
   const client = (db as { $client?: unknown }).$client;
   const { copyAndSettle, isPgPool } = await import('./pgCopy.ts');
   if (!isPgPool(client)) throw new Error("the 'copy' write method needs PGlite or a node-postgres pool");
-  const stream = encodeCopyBinary(RESULT_COLUMNS, rows as readonly Record<string, unknown>[]);
-  return straightOrStaged(batch, rows, (table, settlement) => copyAndSettle(
+  return straightOrStaged(batch, encoded, (table, settlement) => copyAndSettle(
     client,
     { table, columns: RESULT_COLUMN_LIST, ...(table === STAGING ? { stagingLike: 'point_results' } : {}) },
-    stream,
+    encoded.copy,
     dialect.sqlToQuery(settlement),
     (result: OutcomeRow[]) => outcomeOf(batch, result),
   ));
@@ -84,11 +89,11 @@ async function insertBatch(db: Database, batch: BatchRef, rows: readonly NewPoin
  */
 async function straightOrStaged(
   batch: BatchRef,
-  rows: readonly NewPointResultRow[],
+  encoded: EncodedRows,
   copyInto: (table: string, settlement: SQL) => Promise<WriteOutcome>,
 ): Promise<WriteOutcome> {
   try {
-    return await copyInto('point_results', settleKnown(batch, rows));
+    return await copyInto('point_results', settleKnown(batch, encoded));
   } catch (error) {
     if (!isUniqueViolation(error)) throw error;
   }
@@ -101,9 +106,9 @@ function isUniqueViolation(error: unknown): boolean {
 }
 
 /** Binary COPY that PGlite reads from /dev/blob, by the rule of straightOrStaged. */
-async function copyBatch(pglite: PGlite, batch: BatchRef, rows: readonly NewPointResultRow[]): Promise<WriteOutcome> {
-  const blob = new Blob([encodeCopyBinary(RESULT_COLUMNS, rows as readonly Record<string, unknown>[])]);
-  return straightOrStaged(batch, rows, async (table, settlement) => {
+async function copyBatch(pglite: PGlite, batch: BatchRef, encoded: EncodedRows): Promise<WriteOutcome> {
+  const blob = new Blob([encoded.copy]);
+  return straightOrStaged(batch, encoded, async (table, settlement) => {
     if (table === STAGING) await stagingTable(pglite);
     return pglite.transaction(async (tx) => {
       await tx.query(`copy ${table} (${RESULT_COLUMN_LIST}) from '/dev/blob' with (format binary)`, [], { blob });
@@ -154,10 +159,8 @@ function storeAndSettle(batch: BatchRef, source: SQL): SQL {
 }
 
 /** The same for rows that were all stored as they are (the straight COPY): the tally is known. */
-function settleKnown(batch: BatchRef, rows: readonly NewPointResultRow[]): SQL {
-  const failed = rows.filter((row) => row.status !== 'ok').length;
-  const seconds = rows.reduce((sum, row) => sum + row.computeMs, 0) / 1000;
-  return settle(batch, sql`tally as (select ${rows.length}::int as inserted, ${failed}::int as failed, ${seconds}::float8 as seconds)`);
+function settleKnown(batch: BatchRef, encoded: EncodedRows): SQL {
+  return settle(batch, sql`tally as (select ${encoded.count}::int as inserted, ${encoded.failed}::int as failed, ${encoded.computeMs / 1000}::float8 as seconds)`);
 }
 
 /** `tally` defines a CTE of that name with one row (inserted, failed, seconds). */

@@ -1,7 +1,9 @@
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openDatabase, type DatabaseHandle } from '../../../server/db/client.ts';
-import { insertPointResults, type WriteMethod } from '../../../server/db/resultsWriter.ts';
+import { encodeRows } from '../../../server/db/copyBinary.ts';
+import { RESULT_COLUMNS } from '../../../server/db/resultColumns.ts';
+import { insertEncodedResults, insertPointResults, type WriteMethod } from '../../../server/db/resultsWriter.ts';
 import { batches, pointResults, scans, type NewPointResultRow } from '../../../server/db/schema/index.ts';
 import { startPostgres, type TestPostgres } from '../../helpers/postgres.ts';
 import { failedRow, resultRow, seedScan } from './fixtures.ts';
@@ -99,6 +101,29 @@ describe.each(cases)('insertPointResults on %s via %s', (engine, method) => {
     expect(await insertPointResults(handle.db, batch!, [], { method })).toEqual({ inserted: 0, failed: 0, pointsDone: 0, pointCount: 1 });
     const [done] = await handle.db.select().from(batches).where(eq(batches.id, batch!.id));
     expect(done!.state).toBe('done');
+  });
+});
+
+// Compute threads encode their rows themselves (encodeRows) and the main thread writes the bytes.
+describe.each(['pglite', 'postgres'] as const)('insertEncodedResults on %s', (engine) => {
+  beforeAll(() => {
+    handle = engines[engine];
+  });
+
+  it('stores what insertPointResults stores, and a retried batch once', async () => {
+    const { scan, batches: [batch] } = await seedScan(handle.db, 3, 3);
+    const rows = [resultRow(scan.id, 0), failedRow(scan.id, 1), resultRow(scan.id, 2, { reason: 'ü , "' })];
+    const encoded = encodeRows(RESULT_COLUMNS, scan.id, rows);
+    expect(await insertEncodedResults(handle.db, batch!, encoded)).toEqual({ inserted: 3, failed: 1, pointsDone: 3, pointCount: 3 });
+    expect(await insertEncodedResults(handle.db, batch!, encoded)).toEqual({ inserted: 0, failed: 0, pointsDone: 3, pointCount: 3 });
+    expect(await selectResults(scan.id)).toEqual(rows.map(nonFiniteToNull));
+  });
+
+  it('refuses rows encoded for another scan, and encoding refuses a row of another scan', async () => {
+    const { scan, batches: [batch] } = await seedScan(handle.db, 1, 1);
+    await expect(insertEncodedResults(handle.db, batch!, encodeRows(RESULT_COLUMNS, scan.id + 1, [resultRow(scan.id + 1, 0)]))).rejects.toThrow(/do not belong to batch/);
+    expect(() => encodeRows(RESULT_COLUMNS, scan.id, [resultRow(scan.id + 1, 0)])).toThrow(/belongs to scan/);
+    expect(await selectResults(scan.id)).toEqual([]);
   });
 });
 
