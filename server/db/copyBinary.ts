@@ -103,7 +103,8 @@ export function encodeRows(columns: readonly ResultColumn[], scanId: number, row
   }
   return {
     scanId,
-    copy: encodeCopyBinary(columns, rows as readonly Record<string, unknown>[]),
+    // A copy of exact size: structured clone sends a view's whole buffer, which grows by doubling.
+    copy: encodeCopyBinary(columns, rows as readonly Record<string, unknown>[]).slice(),
     count: rows.length,
     failed: rows.filter((row) => row.status !== 'ok').length,
     computeMs: rows.reduce((sum, row) => sum + row.computeMs, 0),
