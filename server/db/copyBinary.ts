@@ -96,11 +96,16 @@ export interface EncodedRows {
   computeMs: number;
 }
 
-/** Pure and free of drizzle: `columns` is RESULT_COLUMNS, passed as plain data to threads. */
-export function encodeRows(columns: readonly ResultColumn[], scanId: number, rows: readonly NewPointResultRow[]): EncodedRows {
+/** Rows of another scan are a caller bug: refused before anything is encoded or written. */
+export function checkRowsOfScan(scanId: number, rows: readonly NewPointResultRow[]): void {
   for (const row of rows) {
     if (row.scanId !== scanId) throw new Error(`point ${row.pointIndex} belongs to scan ${row.scanId}, not to scan ${scanId}`);
   }
+}
+
+/** Pure and free of drizzle: `columns` is RESULT_COLUMNS, passed as plain data to threads. */
+export function encodeRows(columns: readonly ResultColumn[], scanId: number, rows: readonly NewPointResultRow[]): EncodedRows {
+  checkRowsOfScan(scanId, rows);
   return {
     scanId,
     // A copy of exact size: structured clone sends a view's whole buffer, which grows by doubling.

@@ -2,7 +2,7 @@ import type { PGlite } from '@electric-sql/pglite';
 import { sql, type SQL } from 'drizzle-orm';
 import { PgDialect } from 'drizzle-orm/pg-core';
 import { pgliteOf, type Database } from './client.ts';
-import { encodeRows, type EncodedRows } from './copyBinary.ts';
+import { checkRowsOfScan, encodeRows, type EncodedRows } from './copyBinary.ts';
 import { RESULT_COLUMN_LIST, RESULT_COLUMNS } from './resultColumns.ts';
 import type { Batch } from './schema/batches.ts';
 import type { NewPointResultRow } from './schema/pointResults.ts';
@@ -40,10 +40,11 @@ export async function insertPointResults(
   rows: readonly NewPointResultRow[],
   options: { method?: WriteMethod } = {},
 ): Promise<WriteOutcome> {
-  for (const row of rows) {
-    if (row.scanId !== batch.scanId) throw new Error(`point ${row.pointIndex} belongs to scan ${row.scanId}, not to batch ${batch.id} of scan ${batch.scanId}`);
+  if ((options.method ?? 'copy') === 'insert') {
+    checkRowsOfScan(batch.scanId, rows);
+    return insertBatch(db, batch, rows);
   }
-  if ((options.method ?? 'copy') === 'insert') return insertBatch(db, batch, rows);
+  // encodeRows refuses rows of another scan as it goes.
   return insertEncodedResults(db, batch, encodeRows(RESULT_COLUMNS, batch.scanId, rows));
 }
 
